@@ -93,7 +93,6 @@ export function polygonProblem(poly: Polygon): string | null {
     const [nx, ny] = poly[(i + 1) % n];
     if (x === nx && y === ny) return `vertices ${i} and ${(i + 1) % n} coincide`;
   }
-  if (Math.abs(signedArea(poly)) < 1e-12) return 'the polygon has no area';
   for (let i = 0; i < n; i++) {
     const a = poly[i], b = poly[(i + 1) % n];
     for (let j = i + 1; j < n; j++) {
@@ -102,6 +101,7 @@ export function polygonProblem(poly: Polygon): string | null {
       if (segmentsIntersect(a, b, c, d)) return `edges ${i} and ${j} cross or touch (self-intersecting polygon)`;
     }
   }
+  if (Math.abs(signedArea(poly)) < 1e-12) return 'the polygon has no area';
   return null;
 }
 

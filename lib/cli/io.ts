@@ -1,0 +1,9 @@
+/** What a command may touch: streams and file reading, injected so commands stay pure and testable. */
+export interface CliIO {
+  out(s: string): void;
+  err(s: string): void;
+  readFile(path: string): string;
+}
+
+/** Exit codes: 0 success, 1 internal error, 2 bad input. */
+export const EXIT = { ok: 0, internal: 1, badInput: 2 } as const;
