@@ -51,9 +51,10 @@ function byOrder<T extends { order: string; id: string }>(a: T, b: T): number {
   return a.order < b.order ? -1 : a.order > b.order ? 1 : a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
 }
 
-/** Canonical form: parts and zones in stacking order. */
+/** Canonical form: parts and zones in stacking order, plain JSON values only (so -0 is 0, as in a file). */
 export function normalise(s: SectionSnapshot): SectionSnapshot {
-  return { ...s, parts: [...s.parts].sort(byOrder), zones: [...s.zones].sort(byOrder) };
+  const plain = JSON.parse(JSON.stringify(s)) as SectionSnapshot;
+  return { ...plain, parts: plain.parts.sort(byOrder), zones: plain.zones.sort(byOrder) };
 }
 
 function dedupe(problems: Problem[]): Problem[] {
