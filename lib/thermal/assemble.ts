@@ -1,0 +1,174 @@
+/**
+ * Assembly: cell-centred finite volumes on the mesh. Unknowns are the solid cells; the conductance
+ * of a face between two solid cells is the series (harmonic) combination of the two half-cells;
+ * a face on a zone is its half-cell in series with the surface resistance; faces on void or on the
+ * outer edge are adiabatic. The operator is a symmetric positive definite M-matrix in CSR,
+ * rows in cell order (5-point stencil). Solid cells in a region that touches no zone have no
+ * defined temperature and are left out (reported).
+ */
+import type { Csr } from './csr';
+import type { Mesh } from './mesh';
+import type { FaceSide, Run, ZoneRule } from './rs';
+import { surfaceResistance } from './rs';
+
+export interface BoundaryFaces {
+  count: number;
+  /** Unknown index of the solid cell. */
+  unknown: Int32Array;
+  zone: Int32Array;
+  side: Uint8Array;
+  /** Face length, m. */
+  len: Float64Array;
+  /** Half-cell resistance normal to the face, (d/2)/lambda, m2K/W. */
+  rHalf: Float64Array;
+}
+
+export interface ThermalSystem {
+  mesh: Mesh;
+  n: number;
+  cellOf: Int32Array;
+  unknownOf: Int32Array;
+  /** Operator without boundary terms (values); the diagonal is at diagPos. */
+  interior: Csr;
+  diagPos: Int32Array;
+  faces: BoundaryFaces;
+  /** Solids with cells left out because their region touches no zone. */
+  isolatedSolids: number[];
+  zoneCount: number;
+}
+
+export function assemble(mesh: Mesh, lambda: ArrayLike<number>, zoneCount: number): ThermalSystem {
+  const { nx, ny, xs, ys, owner } = mesh;
+  const nc = nx * ny;
+  // Regions of solid cells and whether each touches a zone.
+  const region = new Int32Array(nc).fill(-1);
+  const queue = new Int32Array(nc);
+  const regionTouches: boolean[] = [];
+  for (let c0 = 0; c0 < nc; c0++) {
+    if (owner[c0] < 0 || region[c0] >= 0) continue;
+    const id = regionTouches.length;
+    let touches = false, head = 0, tail = 0;
+    queue[tail++] = c0;
+    region[c0] = id;
+    while (head < tail) {
+      const c = queue[head++];
+      const i = c % nx, j = (c - i) / nx;
+      for (let s = 0; s < 4; s++) {
+        const ii = s === 0 ? i - 1 : s === 1 ? i + 1 : i;
+        const jj = s === 2 ? j - 1 : s === 3 ? j + 1 : j;
+        if (ii < 0 || jj < 0 || ii >= nx || jj >= ny) continue;
+        const d = jj * nx + ii;
+        const o = owner[d];
+        if (o <= -2) touches = true;
+        else if (o >= 0 && region[d] < 0) {
+          region[d] = id;
+          queue[tail++] = d;
+        }
+      }
+    }
+    regionTouches.push(touches);
+  }
+  const unknownOf = new Int32Array(nc).fill(-1);
+  let n = 0;
+  const isolated = new Set<number>();
+  for (let c = 0; c < nc; c++) {
+    if (owner[c] < 0) continue;
+    if (regionTouches[region[c]]) unknownOf[c] = n++;
+    else isolated.add(owner[c]);
+  }
+  if (n === 0) throw new Error(regionTouches.length ? 'no solid part touches a zone: every temperature would be undefined (add a zone along a surface)' : 'the section has no solid cells to compute');
+  const cellOf = new Int32Array(n);
+  for (let c = 0; c < nc; c++) if (unknownOf[c] >= 0) cellOf[unknownOf[c]] = c;
+
+  const rowPtr = new Int32Array(n + 1);
+  let nf = 0;
+  for (let u = 0; u < n; u++) {
+    const c = cellOf[u];
+    const i = c % nx, j = (c - i) / nx;
+    let k = 1;
+    if (j > 0) { if (unknownOf[c - nx] >= 0) k++; else if (owner[c - nx] <= -2) nf++; }
+    if (i > 0) { if (unknownOf[c - 1] >= 0) k++; else if (owner[c - 1] <= -2) nf++; }
+    if (i < nx - 1) { if (unknownOf[c + 1] >= 0) k++; else if (owner[c + 1] <= -2) nf++; }
+    if (j < ny - 1) { if (unknownOf[c + nx] >= 0) k++; else if (owner[c + nx] <= -2) nf++; }
+    rowPtr[u + 1] = rowPtr[u] + k;
+  }
+  const col = new Int32Array(rowPtr[n]);
+  const val = new Float64Array(rowPtr[n]);
+  const diagPos = new Int32Array(n);
+  const faces: BoundaryFaces = { count: nf, unknown: new Int32Array(nf), zone: new Int32Array(nf), side: new Uint8Array(nf), len: new Float64Array(nf), rHalf: new Float64Array(nf) };
+  let f = 0;
+  for (let u = 0; u < n; u++) {
+    const c = cellOf[u];
+    const i = c % nx, j = (c - i) / nx;
+    const lp = lambda[owner[c]];
+    const dx = xs[i + 1] - xs[i], dy = ys[j + 1] - ys[j];
+    let p = rowPtr[u];
+    let diag = 0;
+    const nb = (d: number, side: FaceSide, len: number, half: number, nhalf: number) => {
+      const o = owner[d];
+      const q = unknownOf[d];
+      if (q >= 0) {
+        const g = len / (half / lp + nhalf / lambda[o]);
+        diag += g;
+        return -g;
+      }
+      if (o <= -2) {
+        faces.unknown[f] = u;
+        faces.zone[f] = -2 - o;
+        faces.side[f] = side;
+        faces.len[f] = len;
+        faces.rHalf[f] = half / lp;
+        f++;
+      }
+      return 0;
+    };
+    // Columns ascending: south, west, self, east, north.
+    if (j > 0) { const g = nb(c - nx, 2, dx, dy / 2, (ys[j] - ys[j - 1]) / 2); if (g !== 0) { col[p] = unknownOf[c - nx]; val[p++] = g; } }
+    if (i > 0) { const g = nb(c - 1, 0, dy, dx / 2, (xs[i] - xs[i - 1]) / 2); if (g !== 0) { col[p] = unknownOf[c - 1]; val[p++] = g; } }
+    const dp = p++;
+    if (i < nx - 1) { const g = nb(c + 1, 1, dy, dx / 2, (xs[i + 2] - xs[i + 1]) / 2); if (g !== 0) { col[p] = unknownOf[c + 1]; val[p++] = g; } }
+    if (j < ny - 1) { const g = nb(c + nx, 3, dx, dy / 2, (ys[j + 2] - ys[j + 1]) / 2); if (g !== 0) { col[p] = unknownOf[c + nx]; val[p++] = g; } }
+    col[dp] = u;
+    val[dp] = diag;
+    diagPos[u] = dp;
+  }
+  return { mesh, n, cellOf, unknownOf, interior: { n, m: n, rowPtr, col, val }, diagPos, faces, isolatedSolids: [...isolated].sort((a, b) => a - b), zoneCount };
+}
+
+/** Conductance of each boundary face for a run, W/(m K) per metre run. */
+export function faceConductances(sys: ThermalSystem, rules: readonly ZoneRule[], run: Run, rsiSurface: number): Float64Array {
+  const { faces } = sys;
+  const g = new Float64Array(faces.count);
+  for (let f = 0; f < faces.count; f++) {
+    const rs = surfaceResistance(rules[faces.zone[f]], faces.side[f] as FaceSide, run, rsiSurface);
+    g[f] = faces.len[f] / (rs + faces.rHalf[f]);
+  }
+  return g;
+}
+
+/** The operator with the boundary conductances on the diagonal (shares the pattern of sys.interior). */
+export function operatorWith(sys: ThermalSystem, g: Float64Array, out?: Csr): Csr {
+  const a = sys.interior;
+  const val = out ? out.val : new Float64Array(a.val.length);
+  val.set(a.val);
+  for (let f = 0; f < sys.faces.count; f++) val[sys.diagPos[sys.faces.unknown[f]]] += g[f];
+  return out ?? { n: a.n, m: a.m, rowPtr: a.rowPtr, col: a.col, val };
+}
+
+/** Right-hand side for zone temperatures t (per zone). */
+export function rhs(sys: ThermalSystem, g: Float64Array, t: ArrayLike<number>, out: Float64Array): Float64Array {
+  out.fill(0);
+  for (let f = 0; f < sys.faces.count; f++) out[sys.faces.unknown[f]] += g[f] * t[sys.faces.zone[f]];
+  return out;
+}
+
+/** Heat flow from each zone into the construction, W/m, for cell temperatures x and zone temperatures t. */
+export function zoneFlows(sys: ThermalSystem, g: Float64Array, x: Float64Array, t: ArrayLike<number>, out: Float64Array): Float64Array {
+  out.fill(0);
+  const { faces } = sys;
+  for (let f = 0; f < faces.count; f++) {
+    const z = faces.zone[f];
+    out[z] += g[f] * (t[z] - x[faces.unknown[f]]);
+  }
+  return out;
+}
