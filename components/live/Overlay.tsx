@@ -1,0 +1,104 @@
+'use client';
+/**
+ * The live layers over the parts: the temperature colours (a screen raster, redrawn when the results or
+ * the view change), isotherms, optional heat-flow marks, the verdict segments and the coldest point.
+ */
+import { useEffect, useMemo, useRef } from 'react';
+import { Circle, Group, Image as KImage, Layer, Line, Rect, Text } from 'react-konva';
+import { useBoard, WorldLayer } from '@/components/board/Canvas';
+import { useStore } from '@/components/board/store';
+import { formatQuantity } from '@/lib/units';
+import { buildLut, levels, rangeOf, rasterize } from './colour';
+import { flowMarks, isotherms } from './contours';
+import type { LiveSession } from './session';
+import { styleFor } from './segments';
+import type { LiveOptions } from './options';
+
+const LUT = buildLut();
+
+export function LiveOverlay({ live, options }: { live: LiveSession; options: LiveOptions }) {
+  const c = useBoard();
+  const st = useStore(live.state);
+  const v = useStore(c.view);
+  const size = useStore(c.size);
+  const ui = useStore(c.ui);
+  const opt = useStore(options);
+  const canvas = useMemo(() => (typeof document !== 'undefined' ? document.createElement('canvas') : null), []);
+  const imgRef = useRef<import('konva/lib/shapes/Image').Image | null>(null);
+  const range = useMemo(() => (st.results ? rangeOf(st.results.zones.filter((z) => z.touches).map((z) => z.design.t)) : null), [st.results]);
+
+  useEffect(() => {
+    if (!canvas || !st.field || !range || !opt.colours) return;
+    const w = Math.max(1, Math.floor(size.width)), h = Math.max(1, Math.floor(size.height));
+    if (canvas.width !== w || canvas.height !== h) { canvas.width = w; canvas.height = h; }
+    const ctx = canvas.getContext('2d')!;
+    const img = ctx.createImageData(w, h);
+    rasterize(st.field, range, LUT, v, w, h, img.data, 235);
+    ctx.putImageData(img, 0, 0);
+    imgRef.current?.getLayer()?.batchDraw();
+  }, [canvas, st.field, range, v, size, opt.colours]);
+
+  const lines = useMemo(() => (st.field && range && opt.isotherms ? isotherms(st.field, levels(range, opt.step)) : []), [st.field, range, opt.isotherms, opt.step]);
+  const marks = useMemo(() => (st.field && opt.flow ? flowMarks(st.field, Math.max(3, Math.round(Math.sqrt((st.field.nx * st.field.ny) / 900)))) : []), [st.field, opt.flow]);
+  if (!st.results || !st.field) return null;
+  const r = st.results;
+  const px = 1 / v.k;
+  return (
+    <>
+      {opt.colours && (
+        <Layer listening={false} opacity={st.stale ? 0.55 : 1}>
+          <KImage ref={imgRef} image={canvas ?? undefined} x={0} y={0} width={size.width} height={size.height} />
+        </Layer>
+      )}
+      <WorldLayer opacity={st.stale ? 0.6 : 1}>
+        {lines.map((iso) => iso.lines.map((pts, i) => (
+          <Line key={`${iso.value}-${i}`} points={pts} stroke={iso.value === 0 ? '#ffffff' : 'rgba(20,20,20,0.55)'} strokeWidth={iso.value === 0 ? 1.6 : 0.9} strokeScaleEnabled={false} listening={false} perfectDrawEnabled={false} />
+        )))}
+        {marks.map((m, i) => {
+          const L = 9 * px;
+          return <Line key={`f${i}`} points={[m.x - m.dx * L * 0.5, m.y - m.dy * L * 0.5, m.x + m.dx * L * 0.5, m.y + m.dy * L * 0.5]} stroke="rgba(255,255,255,0.8)" strokeWidth={1} strokeScaleEnabled={false} listening={false} />;
+        })}
+        {r.surfaces.map((s) => {
+          const sty = styleFor(s.state);
+          const pts = [s.from[0], s.from[1], s.to[0], s.to[1]];
+          return (
+            <Group key={s.id} listening={false}>
+              <Line points={pts} stroke="#ffffff" strokeWidth={sty.width + 3} strokeScaleEnabled={false} opacity={0.85} />
+              <Line points={pts} stroke={sty.stroke} strokeWidth={sty.width} dash={sty.dash.length ? sty.dash.map((d) => d * px) : undefined} strokeScaleEnabled={false} lineCap={s.state === 'condensation' ? 'round' : 'butt'} />
+            </Group>
+          );
+        })}
+      </WorldLayer>
+      <Layer listening={false}>
+        {r.surfaces.map((s) => {
+          const sty = styleFor(s.state);
+          const [x, y] = c.toScreen([(s.from[0] + s.to[0]) / 2, (s.from[1] + s.to[1]) / 2]);
+          const hollow = s.kind === 'hidden';
+          if (sty.glyph === 'ring') return <Circle key={`g${s.id}`} x={x} y={y} radius={4} stroke={sty.stroke} strokeWidth={2} fill={hollow ? '#fff' : sty.stroke} />;
+          if (sty.glyph === 'diamond') return <Rect key={`g${s.id}`} x={x} y={y} width={9} height={9} offsetX={4.5} offsetY={4.5} rotation={45} stroke="#fff" strokeWidth={1} fill={hollow ? '#fff' : sty.stroke} />;
+          return (
+            <Group key={`g${s.id}`} x={x} y={y}>
+              <Circle radius={7} fill="#fff" stroke={sty.stroke} strokeWidth={hollow ? 1 : 0} />
+              <Line points={[-4, -4, 4, 4]} stroke={sty.stroke} strokeWidth={2.5} />
+              <Line points={[-4, 4, 4, -4]} stroke={sty.stroke} strokeWidth={2.5} />
+            </Group>
+          );
+        })}
+        {r.coldest && (() => {
+          const [x, y] = c.toScreen(r.coldest.at);
+          const text = `coldest ${formatQuantity('temperature', r.coldest.t, ui.system)}${r.coldest.fRsi !== null ? ` · fRsi ${r.coldest.fRsi.toFixed(2)}` : ''}`;
+          const w = text.length * 6.4 + 12;
+          return (
+            <Group x={x} y={y} listening={false}>
+              <Line points={[0, 0, 14, -22]} stroke="#111" strokeWidth={1.2} />
+              <Circle radius={4} fill="#111" stroke="#fff" strokeWidth={1.5} />
+              <Rect x={14} y={-34} width={w} height={20} fill="#111" cornerRadius={3} opacity={0.9} />
+              <Text x={20} y={-29} text={text} fontSize={11} fontFamily="system-ui, sans-serif" fill="#fff" />
+            </Group>
+          );
+        })()}
+        {st.stale && <Text x={10} y={10} text="Updating: the colours show the previous drawing" fontSize={12} fill="#7a3b00" fontStyle="bold" />}
+      </Layer>
+    </>
+  );
+}

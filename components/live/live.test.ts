@@ -1,0 +1,117 @@
+import { describe, expect, it } from 'vitest';
+import { buildLut, fieldAt, levels, rangeOf, rasterize } from './colour';
+import type { GridField } from './colour';
+import { gridToWorld, isotherms } from './contours';
+import { diffResults, signed } from './diff';
+import { Scheduler } from './scheduler';
+import { SEGMENT_STYLES, worst } from './segments';
+import type { SectionResults } from '@/lib/thermal/types';
+
+// A 4 x 3 field, linear in x: t = 10 x (x = cell centre), non-uniform columns; one void cell.
+const xs = [0, 0.1, 0.3, 0.6, 1.0], ys = [0, 0.5, 1.0, 2.0];
+const cx = (i: number) => (xs[i] + xs[i + 1]) / 2;
+function linear(voidCell = -1): GridField {
+  const t = new Float64Array(12);
+  for (let j = 0; j < 3; j++) for (let i = 0; i < 4; i++) t[j * 4 + i] = j * 4 + i === voidCell ? NaN : 10 * cx(i);
+  return { xs, ys, nx: 4, ny: 3, t };
+}
+
+describe('colours', () => {
+  it('range follows the zone temperatures and the scale runs dark-blue cold to yellow warm (cividis)', () => {
+    expect(rangeOf([20, -18, 4])).toEqual({ lo: -18, hi: 20 });
+    const lut = buildLut();
+    // cividis: the cold end is dark blue (b > r), the warm end bright yellow (r, g > b).
+    expect(lut[2]).toBeGreaterThan(lut[0]);
+    expect(lut[255 * 3]).toBeGreaterThan(lut[255 * 3 + 2]);
+    expect(lut[255 * 3] + lut[255 * 3 + 1]).toBeGreaterThan(lut[0] + lut[1] + 200);
+  });
+  it('rasterises cells onto screen pixels, transparent in voids and outside', () => {
+    const f = linear(5);
+    const lut = buildLut();
+    // 100 px per metre, origin at the screen's bottom-left of a 100 x 200 px image.
+    const w = 110, h = 200, out = new Uint8ClampedArray(w * h * 4);
+    rasterize(f, { lo: 0, hi: 10 }, lut, { k: 100, ox: 0, oy: 200 }, w, h, out);
+    const px = (sx: number, sy: number) => Array.from(out.slice((sy * w + sx) * 4, (sy * w + sx) * 4 + 4));
+    // Pixel at x 0.05 m, y 0.25 m (sy = 200 - 25): cell (0, 0), t = 0.5 -> lut index round(0.05 * 255) = 13.
+    expect(px(5, 175)).toEqual([lut[13 * 3], lut[13 * 3 + 1], lut[13 * 3 + 2], 255]);
+    // Cell (1, 1) is the void: x 0.2, y 0.75.
+    expect(px(20, 125)[3]).toBe(0);
+    // x 1.05 m is outside the model.
+    expect(px(105, 100)[3]).toBe(0);
+    expect(fieldAt(f, 0.45, 1.5)).toBeCloseTo(10 * cx(2));
+    expect(Number.isNaN(fieldAt(f, 0.2, 0.75))).toBe(true);
+  });
+  it('levels at an interval inside the range', () => {
+    expect(levels({ lo: -18, hi: 20 }, 5)).toEqual([-15, -10, -5, 0, 5, 10, 15]);
+    expect(levels({ lo: 0, hi: 4 }, 2)).toEqual([2]);
+  });
+});
+
+describe('isotherms', () => {
+  it('maps grid coordinates through the non-uniform cell centres', () => {
+    expect(gridToWorld(xs, 0.5)).toBeCloseTo(cx(0));
+    expect(gridToWorld(xs, 2)).toBeCloseTo((cx(1) + cx(2)) / 2);
+    expect(gridToWorld(xs, 0)).toBe(0);
+    expect(gridToWorld(xs, 4)).toBe(1);
+  });
+  it('a linear field gives a straight vertical isotherm at the right x, without the model edges', () => {
+    const iso = isotherms(linear(), [4])[0];
+    const pts = iso.lines.flat();
+    expect(pts.length).toBeGreaterThanOrEqual(4);
+    for (let k = 0; k < pts.length; k += 2) expect(pts[k]).toBeCloseTo(0.4, 9);
+    // Nothing along the outer boundary (y = 0 or y = 2 only as end points of the vertical line, never a horizontal run).
+    for (const line of iso.lines) for (let k = 0; k + 2 < line.length; k += 2) expect(line[k]).toBeCloseTo(line[k + 2], 9);
+  });
+  it('does not draw around a void cell', () => {
+    // Level 1.0 lies between cells 0 (0.5) and 1 (2.0); with cell (1,1) void the line breaks there instead of circling it.
+    const iso = isotherms(linear(5), [1])[0];
+    for (const line of iso.lines) for (let k = 0; k < line.length; k += 2) expect(line[k]).toBeLessThan(cx(1));
+  });
+});
+
+describe('verdict segments', () => {
+  it('three states differ in dash and glyph as well as colour', () => {
+    const s = Object.values(SEGMENT_STYLES);
+    expect(new Set(s.map((x) => x.stroke)).size).toBe(3);
+    expect(new Set(s.map((x) => x.glyph)).size).toBe(3);
+    expect(new Set(s.map((x) => x.dash.join(','))).size).toBe(3);
+    expect(worst(['fine', 'mould risk', 'fine'])).toBe('mould risk');
+    expect(worst(['fine', 'condensation', 'mould risk'])).toBe('condensation');
+  });
+});
+
+describe('compare', () => {
+  const res = (psiG: number, t: number, phi: number) => ({ zones: [{ id: 'room', phi }], indoorZoneId: 'room', psiGround: { psiG }, psi: null, coldest: { t }, l2d: 1 }) as unknown as SectionResults;
+  it('differences now minus baseline', () => {
+    const d = diffResults(res(0.4, 12, 20), res(0.45, 11.5, 21));
+    expect(d.psi).toBeCloseTo(0.05);
+    expect(d.coldest).toBeCloseTo(-0.5);
+    expect(d.phi).toBeCloseTo(1);
+    expect(signed(0.05, 3)).toBe('+0.050');
+    expect(signed(-0.0001, 3)).toBe('0.000');
+  });
+});
+
+describe('scheduler', () => {
+  it('lets a running preview finish and keeps only the newest waiting preview', () => {
+    const s = new Scheduler<string>();
+    expect(s.request('a', 'preview', 1)).toEqual([{ type: 'send', req: { id: 1, snapshot: 'a', mesh: 'preview', version: 1 } }]);
+    expect(s.request('b', 'preview', 2)).toEqual([]);
+    expect(s.request('c', 'preview', 3)).toEqual([]);
+    expect(s.done(1)).toEqual([{ type: 'send', req: { id: 3, snapshot: 'c', mesh: 'preview', version: 3 } }]);
+    expect(s.done(3)).toEqual([]);
+    expect(s.running).toBeNull();
+  });
+  it('a release cancels the running solve and supersedes the waiting one', () => {
+    const s = new Scheduler<string>();
+    s.request('a', 'preview', 1);
+    s.request('b', 'preview', 2);
+    const e = s.request('c', 'default', 2);
+    expect(e).toEqual([{ type: 'cancel', id: 1 }, { type: 'send', req: { id: 3, snapshot: 'c', mesh: 'default', version: 2 } }]);
+    // The cancelled one reporting back changes nothing.
+    expect(s.done(1)).toEqual([]);
+    expect(s.running?.id).toBe(3);
+    expect(s.stop()).toEqual([{ type: 'cancel', id: 3 }]);
+    expect(Scheduler.fresher(2, 3)).toBe(false);
+  });
+});

@@ -1,0 +1,159 @@
+/**
+ * The live session: watches the board's drawn section, asks the worker for solves through the scheduler
+ * (preview mesh while dragging, default mesh otherwise), and holds the newest results in a small store.
+ * Results older than the drawing are kept on screen, marked stale, until fresh ones arrive.
+ */
+import type { BoardController } from '@/components/board/controller';
+import type { Store } from '@/components/board/store';
+import { createStore } from '@/components/board/store';
+import type { SectionSnapshot } from '@/lib/section/schema';
+import type { SectionResults } from '@/lib/thermal/types';
+import type { GridField } from './colour';
+import type { FromWorker, ToWorker } from './protocol';
+import type { Effect, Mesh } from './scheduler';
+import { Scheduler } from './scheduler';
+
+export interface LiveState {
+  results: SectionResults | null;
+  field: GridField | null;
+  /** Section version the shown results belong to. */
+  version: number;
+  /** Version of the drawing now. */
+  drawn: number;
+  stale: boolean;
+  busy: { mesh: Mesh; elapsedMs: number } | null;
+  error: string | null;
+  /** Results received so far (tests and the benchmark count them). */
+  refreshes: number;
+  lastMs: number;
+  stopped: boolean;
+  /** Mesh level of the shown results. */
+  mesh: Mesh | null;
+}
+
+export interface Baseline { results: SectionResults; snapshot: SectionSnapshot }
+
+export class LiveSession {
+  readonly state: Store<LiveState>;
+  readonly baseline: Store<Baseline | null> = createStore<Baseline | null>(null);
+  controller: BoardController | null = null;
+  private worker: Worker | null = null;
+  private sched = new Scheduler<SectionSnapshot>();
+  private shownId = 0;
+  private raf = 0;
+  private lastSent = { version: -1, mesh: '' as string };
+  private snapshots = new Map<number, SectionSnapshot>();
+  private off: (() => void)[] = [];
+
+  constructor() {
+    this.state = createStore<LiveState>({ results: null, field: null, version: -1, drawn: 0, stale: true, busy: null, error: null, refreshes: 0, lastMs: 0, stopped: false, mesh: null });
+  }
+
+  attach(c: BoardController) {
+    if (this.controller === c) return;
+    this.detach();
+    this.controller = c;
+    this.worker = new Worker(new URL('./solver.worker.ts', import.meta.url), { type: 'module' });
+    this.worker.onmessage = (e: MessageEvent<FromWorker>) => this.receive(e.data);
+    this.off.push(c.section.subscribe(() => this.schedule()), c.settled.subscribe(() => this.schedule()));
+    this.schedule();
+  }
+
+  detach() {
+    for (const f of this.off) f();
+    this.off = [];
+    this.worker?.terminate();
+    this.worker = null;
+    this.controller = null;
+    cancelAnimationFrame(this.raf);
+    this.raf = 0;
+  }
+
+  private patch(p: Partial<LiveState>) {
+    this.state.set((s) => ({ ...s, ...p }));
+  }
+
+  /** Coalesce changes to one request per animation frame. */
+  private schedule() {
+    const c = this.controller;
+    if (!c) return;
+    this.patch({ drawn: c.section.get().version, stale: this.state.get().version !== c.section.get().version });
+    if (this.raf) return;
+    this.raf = requestAnimationFrame(() => {
+      this.raf = 0;
+      this.sendCurrent();
+    });
+  }
+
+  private sendCurrent(force = false) {
+    const c = this.controller;
+    if (!c) return;
+    const s = c.section.get();
+    const mesh: Mesh = c.isDragging() ? 'preview' : 'default';
+    if (!force && this.lastSent.version === s.version && this.lastSent.mesh === mesh) return;
+    this.lastSent = { version: s.version, mesh };
+    this.snapshots.set(s.version, s.snapshot);
+    for (const k of this.snapshots.keys()) if (this.snapshots.size > 40) this.snapshots.delete(k);
+    this.apply(this.sched.request(s.snapshot, mesh, s.version));
+    this.patch({ stopped: false });
+  }
+
+  /** Solve the drawing again at the default mesh (after a stop). */
+  resume() {
+    this.sendCurrent(true);
+  }
+
+  stop() {
+    this.apply(this.sched.stop());
+    this.patch({ busy: null, stopped: true });
+  }
+
+  private apply(effects: Effect<SectionSnapshot>[]) {
+    for (const e of effects) {
+      if (e.type === 'cancel') this.post({ type: 'cancel', id: e.id });
+      else {
+        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh });
+        this.patch({ busy: { mesh: e.req.mesh, elapsedMs: 0 } });
+      }
+    }
+    if (!this.sched.running) this.patch({ busy: null });
+  }
+
+  private post(m: ToWorker) {
+    this.worker?.postMessage(m);
+  }
+
+  private receive(m: FromWorker) {
+    if (m.type === 'progress') {
+      if (this.sched.running?.id === m.id) this.patch({ busy: { mesh: this.sched.running.mesh, elapsedMs: m.elapsedMs } });
+      return;
+    }
+    const req = this.sched.running && this.sched.running.id === m.id ? this.sched.running : null;
+    if (m.type === 'result' && Scheduler.fresher(m.id, this.shownId)) {
+      this.shownId = m.id;
+      const version = req?.version ?? this.state.get().version;
+      const field: GridField = { xs: m.results.field.xs, ys: m.results.field.ys, nx: m.results.field.xs.length - 1, ny: m.results.field.ys.length - 1, t: m.field };
+      const drawn = this.controller?.section.get().version ?? version;
+      const prev = this.state.get();
+      this.patch({ results: m.results, field, version, stale: version !== drawn, mesh: req?.mesh ?? null, error: null, refreshes: prev.refreshes + 1, lastMs: m.ms });
+      expose(this, m.results, req?.mesh ?? null, version);
+    } else if (m.type === 'error' && req) this.patch({ error: m.message });
+    this.apply(this.sched.done(m.id));
+    // A preview that finished after the release, or anything missed: make sure the drawing gets its default solve.
+    if (!this.sched.running && this.controller && !this.controller.isDragging() && this.lastSent.mesh !== 'default') this.sendCurrent();
+  }
+
+  pinBaseline() {
+    const r = this.state.get().results;
+    const snap = this.snapshots.get(this.state.get().version) ?? this.controller?.snapshot();
+    if (r && snap) this.baseline.set({ results: r, snapshot: snap });
+  }
+}
+
+function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, version: number) {
+  if (typeof window === 'undefined') return;
+  const w = window as unknown as { __dewline?: Record<string, unknown> };
+  w.__dewline ??= {};
+  w.__dewline.results = results;
+  w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), snapshot: s.controller?.snapshot() };
+}

@@ -1,0 +1,52 @@
+/// <reference lib="webworker" />
+/**
+ * The solver worker: plain messages in and out. One solve at a time; a cancel message (or a newer solve)
+ * aborts the running one between iterations. The last results of each mesh level warm-start the next.
+ */
+import { solveSection } from '@/lib/thermal/section';
+import type { SectionResults } from '@/lib/thermal/types';
+import type { SectionSnapshot } from '@/lib/section/schema';
+import type { FromWorker, ToWorker } from './protocol';
+
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+let current: { id: number; token: { aborted: boolean } } | null = null;
+const last: Partial<Record<string, SectionResults>> = {};
+
+scope.onmessage = (e: MessageEvent<ToWorker>) => {
+  const m = e.data;
+  if (m.type === 'cancel') {
+    if (current && current.id === m.id) current.token.aborted = true;
+    return;
+  }
+  if (m.type === 'solve') {
+    if (current) current.token.aborted = true;
+    void run(m.id, m.snapshot as SectionSnapshot, m.mesh);
+  }
+};
+
+async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'default' | 'fine') {
+  const token = { aborted: false };
+  current = { id, token };
+  const t0 = performance.now();
+  const timer = setInterval(() => post({ type: 'progress', id, elapsedMs: performance.now() - t0 }), 250);
+  try {
+    const warm = last[mesh] ?? last.preview ?? last.default ?? null;
+    const results = await solveSection(snapshot, { mesh, signal: token, warmStart: warm });
+    last[mesh] = results;
+    const t = new Float64Array(results.field.t.length);
+    for (let k = 0; k < t.length; k++) { const v = results.field.t[k]; t[k] = v === null ? NaN : v; }
+    const lean: SectionResults = { ...results, field: { xs: results.field.xs, ys: results.field.ys, t: [] } };
+    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0 }, [t.buffer]);
+  } catch (err) {
+    const e = err as Error;
+    if (e?.name === 'AbortError') post({ type: 'cancelled', id });
+    else post({ type: 'error', id, message: e?.message ?? String(err) });
+  } finally {
+    clearInterval(timer);
+    if (current?.id === id) current = null;
+  }
+}
+
+function post(m: FromWorker, transfer: Transferable[] = []) {
+  scope.postMessage(m, transfer);
+}
