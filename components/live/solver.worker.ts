@@ -30,7 +30,8 @@ async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'def
   const t0 = performance.now();
   const timer = setInterval(() => post({ type: 'progress', id, elapsedMs: performance.now() - t0 }), 250);
   try {
-    const warm = last[mesh] ?? last.preview ?? last.default ?? null;
+    // Preview solves start from the last preview; release solves start cold, so they equal `dewline solve` to the last digit.
+    const warm = mesh === 'preview' ? last.preview ?? last.default ?? null : null;
     const results = await solveSection(snapshot, { mesh, signal: token, warmStart: warm });
     last[mesh] = results;
     const t = new Float64Array(results.field.t.length);
