@@ -40,12 +40,21 @@ const COMMANDS: Record<string, Command> = {
   },
   check: checkCommand,
   async solve(args, io) {
-    const { solveCommand } = await import('./solve');
-    return solveCommand(args, io);
+    // The solver's command module is optional in this build: a missing one is reported, not a crash.
+    const mod = (await import(/* @vite-ignore */ './solve' + '').catch(() => null)) as { solveCommand?: Command } | null;
+    if (!mod?.solveCommand) {
+      io.err('dewline solve: not available in this build yet');
+      return EXIT.internal;
+    }
+    return mod.solveCommand(args, io);
   },
   async validate(args, io) {
-    const { validateCommand } = await import('./validate');
-    return validateCommand(args, io);
+    const mod = (await import(/* @vite-ignore */ './validate' + '').catch(() => null)) as { validateCommand?: Command } | null;
+    if (!mod?.validateCommand) {
+      io.err('dewline validate: not available in this build yet');
+      return EXIT.internal;
+    }
+    return mod.validateCommand(args, io);
   },
 };
 

@@ -1,12 +1,11 @@
 /**
  * Live physics in the browser: the readout equals solveSectionSync (the code path of `dewline solve`)
- * on the same snapshot, and thinning the slab-edge break raises psi_g and lowers the coldest surface.
+ * on the same snapshot, and thinning the slab-edge break raises psi_g and lowers the slab-edge surface temperature.
  */
 import { expect, test } from '@playwright/test';
 import { solveSectionSync } from '../../lib/thermal/section';
 import type { SectionResults } from '../../lib/thermal/types';
 
-test.use({ baseURL: process.env.DEWLINE_URL ?? 'http://127.0.0.1:3471', launchOptions: { executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--headless', '--disable-gpu', '--disable-background-networking'] } });
 test.setTimeout(300_000);
 
 type W = { __dewline: { results: SectionResults; live: { version: number; mesh: string }; controller: { section: { get(): { version: number } }; updatePart(id: string, p: Record<string, unknown>): string | null }; snapshot(): unknown } };
@@ -33,5 +32,8 @@ test('readout follows the drawing and equals the solver on the same snapshot', a
   expect(after.r.psiGround!.psiG).toBeCloseTo(ref2.psiGround!.psiG, 9);
   expect(after.r.coldest!.t).toBeCloseTo(ref2.coldest!.t, 9);
   expect(after.r.psiGround!.psiG).toBeGreaterThan(before.r.psiGround!.psiG);
-  expect(after.r.coldest!.t).toBeLessThan(before.r.coldest!.t);
+  // The slab edge runs colder with a thinner break. (The section's single coldest point sits at the sill
+  // plate corner, which the closer slab warms, so the slab's own surfaces are the ones to watch.)
+  const slabMin = (r: typeof after.r) => Math.min(...r.surfaces.filter((x) => x.partId === 'slab').map((x) => x.tMin));
+  expect(slabMin(after.r)).toBeLessThan(slabMin(before.r) - 1);
 });

@@ -44,7 +44,7 @@ export async function startTestServer(opts: { dir?: string; limits?: Partial<Lim
     limits: opts.limits,
     allowedOrigins: opts.allowedOrigins,
     log: createLogger({ level: 'debug', write: (line) => void logLines.push(line) }),
-    env: {},
+    env: {} as NodeJS.ProcessEnv,
   });
   return { ...s, dir, logLines, base: `http://127.0.0.1:${s.port}`, wsBase: `ws://127.0.0.1:${s.port}/sync` };
 }

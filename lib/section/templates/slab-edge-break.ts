@@ -11,22 +11,23 @@ export function slabEdgeBreak() {
   return section({
     name: 'Slab on ground, slab-edge break',
     description:
-      'Example: 100 mm slab on 50 mm XPS and a 150 mm stone bed, 25 mm XPS break between the slab edge and a 200 mm stem wall, 2x6 framed wall above. Invented scenario; conditions are examples, not code values.',
+      'Example: 100 mm slab on 50 mm XPS and a 150 mm stone bed, 25 mm XPS break between the slab edge and a 200 mm stem wall, 2x6 framed wall above, flush with the inner face of the stem wall. Invented scenario; conditions are examples, not code values.',
     parts: [
       part({ id: 'ground', kind: 'soil', name: 'Ground', material: 'soil-clay-silt', at: [-GROUND.beside, -GROUND.below], width: GROUND.beside + inner, depth: GROUND.below }),
       part({ id: 'footing', kind: 'footing', name: 'Footing', at: [-0.2, -1.2], width: 0.6, depth: 0.25 }),
       part({ id: 'stem', kind: 'foundation-wall', name: 'Stem wall', join: { to: 'footing', anchor: 'top-center', self: 'bottom-center' }, thickness: 0.2, height: 1.15 }),
-      part({ id: 'bed', kind: 'gravel', name: 'Stone bed', at: [0.225, -0.1], thickness: 0.15, width: inner - 0.225 }),
       part({ id: 'subslab', kind: 'board', name: 'Sub-slab XPS', join: { to: 'bed', anchor: 'top-left', self: 'bottom-left' }, orientation: 'horizontal', placement: 'under-slab', thickness: 0.05, length: inner - 0.225 }),
       part({ id: 'slab', kind: 'slab', name: 'Slab', join: { to: 'subslab', anchor: 'top-left', self: 'bottom-left' }, thickness: 0.1, width: inner - 0.225 }),
       part({ id: 'edge', kind: 'board', name: 'Slab-edge break', join: { to: 'stem', anchor: 'top-right', self: 'top-left' }, orientation: 'vertical', placement: 'slab-edge', thickness: 0.025, length: 0.3 }),
-      part({ id: 'plate', kind: 'plate', name: 'Sill plate', join: { to: 'stem', anchor: 'top-left', self: 'bottom-left' }, width: 0.14, role: 'sill' }),
+      // The floor layers ride on the break: thinning or thickening it moves them, so no gap opens at the slab edge.
+      part({ id: 'bed', kind: 'gravel', name: 'Stone bed', join: { to: 'edge', anchor: 'bottom-right', self: 'bottom-left' }, thickness: 0.15, width: inner - 0.225 }),
+      part({ id: 'plate', kind: 'plate', name: 'Sill plate', join: { to: 'stem', anchor: 'top-right', self: 'bottom-right' }, width: 0.14, role: 'sill' }),
       part({ id: 'wall', kind: 'framed-wall', name: 'Framed wall', join: { to: 'plate', anchor: 'top-left', self: 'bottom-left' }, studDepth: 0.14, height: top - 0.244 }),
     ],
     zones: [
-      rectZone('outdoor', 'outdoor', 'Outdoor air', -GROUND.beside, 0, 0, top, C.outdoor.design, C.outdoor.month),
+      rectZone('outdoor', 'outdoor', 'Outdoor air', -GROUND.beside, 0, 0.06, top, C.outdoor.design, C.outdoor.month),
       rectZone('grade', 'ground-surface', 'Ground surface', -GROUND.beside, 0, 0, 0.02, C.ground.design, C.ground.month),
-      rectZone('room', 'indoor', 'Living room', 0, 0.2, inner, top, C.indoor.design, C.indoor.month),
+      rectZone('room', 'indoor', 'Living room', 0.06, 0.2, inner, top, C.indoor.design, C.indoor.month),
     ],
     analysis: {
       convention: 'internal',

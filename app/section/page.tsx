@@ -1,0 +1,7 @@
+import SectionPage from '@/components/section-page/SectionPage';
+
+export const metadata = { title: 'Section · Dewline' };
+
+export default function Page() {
+  return <SectionPage />;
+}
