@@ -13,8 +13,8 @@ test('home page opens a template and the section is drawn', async ({ page }) => 
   await page.waitForURL(/\/section\?template=slab-edge-break/);
   await page.waitForFunction(() => Boolean((window as any).__dewline?.doc), null, { timeout: 60_000 });
   const ids = await page.evaluate(() => {
-    const v = (window as any).__dewline.snapshot();
-    return v.ok ? v.section.parts.map((p: { id: string }) => p.id) : null;
+    const s = (window as any).__dewline.snapshot();
+    return s.parts ? s.parts.map((p: { id: string }) => p.id) : null;
   });
   const expected = templateByName('slab-edge-break')!.build().parts.map((p) => p.id);
   expect(ids?.sort()).toEqual([...expected].sort());
@@ -52,6 +52,6 @@ test('opening a valid file loads it on the section page', async ({ page }) => {
   await page.getByTestId('open-file').setInputFiles(file);
   await page.waitForURL(/\/section\?open=1/);
   await page.waitForFunction(() => Boolean((window as any).__dewline?.doc), null, { timeout: 60_000 });
-  const name = await page.evaluate(() => (window as any).__dewline.snapshot().section.name);
+  const name = await page.evaluate(() => (window as any).__dewline.snapshot().name);
   expect(name).toBe(s.name);
 });
