@@ -41,7 +41,7 @@ const COMMANDS: Record<string, Command> = {
   check: checkCommand,
   async solve(args, io) {
     // The solver's command module is optional in this build: a missing one is reported, not a crash.
-    const mod = (await import(/* @vite-ignore */ './solve' + '').catch(() => null)) as { solveCommand?: Command } | null;
+    const mod = (await import('./solve').catch(() => null)) as { solveCommand?: Command } | null;
     if (!mod?.solveCommand) {
       io.err('dewline solve: not available in this build yet');
       return EXIT.internal;
