@@ -37,7 +37,7 @@ export function buildSection(materials: TestMaterial[], solids: TestSolid[], zon
     version: 1,
     name: 'test section',
     materials: materials.map((m) => ({
-      id: m.id,
+      id: `t-${m.id}`,
       name: m.id,
       lambda: m.lambda,
       density: 1000,
@@ -45,7 +45,7 @@ export function buildSection(materials: TestMaterial[], solids: TestSolid[], zon
       pattern: m.pattern ?? 'plain',
       source: { lambda: 'test value', mu: 'test value', density: 'test value' },
     })),
-    parts: solids.map((s, i) => ({ id: `p${i}`, kind: 'polygon', material: s.material, order: key(i), x: 0, y: 0, points: [...s.points.map(([x, y]) => [x, y]), [s.points[0][0], s.points[0][1]]] })),
+    parts: solids.map((s, i) => ({ id: `p${i}`, kind: 'polygon', material: `t-${s.material}`, order: key(i), x: 0, y: 0, points: [...s.points.map(([x, y]) => [x, y]), [s.points[0][0], s.points[0][1]]] })),
     zones: zones.map((z, i) => ({
       id: z.id ?? `z${i}`,
       kind: z.kind,
