@@ -3,7 +3,7 @@
  * wool in front of it, rim joist with spray foam, framed wall above (invented project: "Heron Lane
  * basement refit"). x = 0 at the outer face of the foundation wall, y = 0 at grade.
  */
-import { EXAMPLE_CLIMATE as C, GROUND, part, rectZone, section } from './build';
+import { EXAMPLE_CLIMATE as C, GROUND, exteriorZones, part, rectZone, section } from './build';
 
 export function basementInteriorFramed() {
   const inner = 0.2 + GROUND.inside;
@@ -27,8 +27,7 @@ export function basementInteriorFramed() {
       part({ id: 'upper', kind: 'framed-wall', name: 'Framed wall above', join: { to: 'rim', anchor: 'top-left', self: 'bottom-left' }, studDepth: 0.14, height: top - 0.597 }),
     ],
     zones: [
-      rectZone('outdoor', 'outdoor', 'Outdoor air', -GROUND.beside, 0, 0, top, C.outdoor.design, C.outdoor.month),
-      rectZone('grade', 'ground-surface', 'Ground surface', -GROUND.beside, 0, 0, 0.02, C.ground.design, C.ground.month),
+      ...exteriorZones(top),
       rectZone('basement', 'indoor', 'Basement', 0, -2.2, inner, 0.579, C.indoor.design, C.indoor.month),
       rectZone('room', 'indoor', 'Room above', 0, 0.597, inner, top, C.indoor.design, C.indoor.month),
     ],

@@ -74,3 +74,14 @@ export const EXAMPLE_CLIMATE = {
 
 /** Ground extents per ISO 10211 for a floor width b of 8 m: 4 m inside, 20 m beside and below. */
 export const GROUND = { inside: 4, beside: 20, below: 20 };
+
+/**
+ * The two exterior zones every template has: outdoor air above grade up to the model's top cut (out to
+ * `airEdge`, the building's outer face above grade), and a thin ground-surface zone on the soil outside.
+ */
+export function exteriorZones(top: number, airEdge = 0): Omit<ZoneRecord, 'order'>[] {
+  return [
+    rectZone('outdoor', 'outdoor', 'Outdoor air', -GROUND.beside, 0, airEdge, top, EXAMPLE_CLIMATE.outdoor.design, EXAMPLE_CLIMATE.outdoor.month),
+    rectZone('grade', 'ground-surface', 'Ground surface', -GROUND.beside, 0, 0, 0.02, EXAMPLE_CLIMATE.ground.design, EXAMPLE_CLIMATE.ground.month),
+  ];
+}

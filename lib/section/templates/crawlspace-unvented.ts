@@ -3,7 +3,7 @@
  * (invented project: "Willow Bend duplex"). The crawl space is an unconditioned zone with a fixed air
  * temperature and humidity (example values). x = 0 at the outer face of the wall, y = 0 at grade.
  */
-import { EXAMPLE_CLIMATE as C, GROUND, part, rectZone, section } from './build';
+import { EXAMPLE_CLIMATE as C, GROUND, exteriorZones, part, rectZone, section } from './build';
 
 export function crawlspaceUnvented() {
   const inner = 0.2 + GROUND.inside;
@@ -24,8 +24,7 @@ export function crawlspaceUnvented() {
       part({ id: 'upper', kind: 'framed-wall', name: 'Framed wall above', join: { to: 'rim', anchor: 'top-left', self: 'bottom-left' }, studDepth: 0.14, height: top - 0.697 }),
     ],
     zones: [
-      rectZone('outdoor', 'outdoor', 'Outdoor air', -GROUND.beside, 0, 0, top, C.outdoor.design, C.outdoor.month),
-      rectZone('grade', 'ground-surface', 'Ground surface', -GROUND.beside, 0, 0, 0.02, C.ground.design, C.ground.month),
+      ...exteriorZones(top),
       rectZone('crawl', 'unconditioned', 'Crawl space', 0, -0.4, inner, 0.679, [14, 60], [15, 60]),
       rectZone('room', 'indoor', 'Room above', 0, 0.697, inner, top, C.indoor.design, C.indoor.month),
     ],

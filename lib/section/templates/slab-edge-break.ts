@@ -3,7 +3,7 @@
  * and footing (invented project: "Larch Row cottage"). x = 0 at the outer face of the stem wall,
  * y = 0 at grade.
  */
-import { EXAMPLE_CLIMATE as C, GROUND, part, rectZone, section } from './build';
+import { EXAMPLE_CLIMATE as C, GROUND, exteriorZones, part, rectZone, section } from './build';
 
 export function slabEdgeBreak() {
   const inner = 0.2 + GROUND.inside; // symmetry plane in the middle of an 8 m floor
@@ -25,8 +25,7 @@ export function slabEdgeBreak() {
       part({ id: 'wall', kind: 'framed-wall', name: 'Framed wall', join: { to: 'plate', anchor: 'top-left', self: 'bottom-left' }, studDepth: 0.14, height: top - 0.244 }),
     ],
     zones: [
-      rectZone('outdoor', 'outdoor', 'Outdoor air', -GROUND.beside, 0, 0.06, top, C.outdoor.design, C.outdoor.month),
-      rectZone('grade', 'ground-surface', 'Ground surface', -GROUND.beside, 0, 0, 0.02, C.ground.design, C.ground.month),
+      ...exteriorZones(top, 0.06),
       rectZone('room', 'indoor', 'Living room', 0.06, 0.2, inner, top, C.indoor.design, C.indoor.month),
     ],
     analysis: {
