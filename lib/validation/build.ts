@@ -1,7 +1,7 @@
-/** Build validated section snapshots from plain polygons (free-polygon parts) for the validation cases. */
-import type { Point } from '../../lib/section/geometry';
-import type { SectionSnapshot, ZoneKind } from '../../lib/section/schema';
-import { validateSection } from '../../lib/section/validate';
+/** Build validated section snapshots from plain polygons (free-polygon parts) for the validation cases (tests and `dewline validate`). */
+import type { Point } from '../section/geometry';
+import type { SectionSnapshot, ZoneKind } from '../section/schema';
+import { validateSection } from '../section/validate';
 
 export interface TestMaterial {
   id: string;
