@@ -3,6 +3,8 @@ export interface CliIO {
   out(s: string): void;
   err(s: string): void;
   readFile(path: string): string;
+  /** Write a text file (the Node entry provides it; commands that write say so when it is missing). */
+  writeFile?(path: string, text: string): void;
 }
 
 /** Exit codes: 0 success, 1 internal error, 2 bad input. */
