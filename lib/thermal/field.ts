@@ -1,7 +1,8 @@
 /**
  * Temperatures from a solution: per cell, on each face (flux-continuous interface value, surface
  * value behind the surface resistance, or the cell value on an adiabatic face), and at any point
- * (the cell value plus one-sided linear reconstruction toward the nearest faces; exact in 1-D).
+ * (the cell value plus one-sided linear reconstruction toward the nearest faces, limited to the
+ * range of the solution; exact in 1-D).
  */
 import type { ThermalSystem } from './assemble';
 
@@ -10,6 +11,9 @@ export class TemperatureField {
   private rs: Float64Array;
   /** Boundary face index by cell and side (4 per cell), -1 when none. */
   private faceAt: Int32Array;
+  /** Range of the solution: its cells and the zones on its faces (the maximum principle's bounds). */
+  private lo = Infinity;
+  private hi = -Infinity;
 
   constructor(
     readonly sys: ThermalSystem,
@@ -27,6 +31,13 @@ export class TemperatureField {
     for (let k = 0; k < f.count; k++) {
       this.rs[k] = Math.max(0, f.len[k] / g[k] - f.rHalf[k]);
       this.faceAt[sys.cellOf[f.unknown[k]] * 4 + f.side[k]] = k;
+      const t = tz[f.zone[k]];
+      if (t < this.lo) this.lo = t;
+      if (t > this.hi) this.hi = t;
+    }
+    for (let u = 0; u < x.length; u++) {
+      if (x[u] < this.lo) this.lo = x[u];
+      if (x[u] > this.hi) this.hi = x[u];
     }
   }
 
@@ -95,7 +106,10 @@ export class TemperatureField {
       sum += tp + Math.abs(fx) * (tx - tp) + Math.abs(fy) * (ty - tp);
       count++;
     }
-    return sum / count;
+    // The reconstruction is linear in x and y from the cell centre; off both centre lines near a
+    // warm or cold corner it can pass the range of the solution, so it is limited to that range
+    // (cells and zones on the faces), which keeps the maximum principle at every point.
+    return Math.min(Math.max(sum / count, this.lo), this.hi);
   }
 }
 
