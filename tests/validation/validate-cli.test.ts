@@ -8,6 +8,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parseValidateArgs, validationExit } from '../../lib/cli/validate';
+import { VALIDATION_GROUPS } from '../../lib/validation';
 import { absRow } from '../../lib/validation/row';
 
 const root = path.resolve(__dirname, '../..');
@@ -25,6 +26,9 @@ describe('dewline validate', () => {
     expect(r.stderr).toMatch(/validation checks, 0 failed/);
     const written = fs.readFileSync(file, 'utf8');
     expect(written).toMatch(/do not edit by hand/i);
+    // Every group states its mesh; the ISO 10211 and ISO 13370 ones are explicit, not built-in levels.
+    for (const g of VALIDATION_GROUPS) expect(written).toContain(`## ${g.title}\n\nMesh: `);
+    expect(written).toMatch(/## ISO 10211 Annex A case 2\n\nMesh: explicit: first cell 0.5 mm/);
     // 28 points of case 1 plus 4 tabulated, Phi and A-I of case 2.
     expect(written.match(/^\| T\(/gm)?.length).toBe(32);
     expect(written.match(/^\| T at [A-I] /gm)?.length).toBe(9);
