@@ -215,7 +215,8 @@ export class BoardController {
   }
 
   dispose() {
-    cancelAnimationFrame(this.raf);
+    if (this.raf) cancelAnimationFrame(this.raf);
+    this.raf = 0;
     for (const d of this.disposers) d();
   }
 
