@@ -185,6 +185,7 @@ function GridLayer() {
 const INK = '#1d232b';
 const ACCENT = '#0f6b5c';
 const GUIDE = '#c2410c';
+const CUT = '#5b3f8c';
 
 function DimensionLine({ a, b, text, offset }: { a: [number, number]; b: [number, number]; text: string; offset: [number, number] }) {
   const p = [a[0] + offset[0], a[1] + offset[1]], q = [b[0] + offset[0], b[1] + offset[1]];
@@ -302,6 +303,19 @@ function ScreenLayer() {
       out.push(<Circle key={`dv${i}`} x={x} y={y} radius={i === 0 ? 7 : 4} fill={i === 0 ? 'rgba(15,107,92,0.15)' : '#fbfaf7'} stroke={ACCENT} strokeWidth={1.5} listening={false} />);
     });
   }
+  // Saved cut lines (the chosen one stronger) and the one being drawn.
+  for (const cut of st.snapshot.cuts) {
+    const on = ui.activeCut === cut.id;
+    const [x0, y0] = sp(cut.from), [x1, y1] = sp(cut.to);
+    out.push(<Line key={`cut-${cut.id}`} points={[x0, y0, x1, y1]} stroke={CUT} strokeWidth={on ? 2 : 1.2} dash={[7, 3, 2, 3]} opacity={on ? 1 : 0.7} listening={false} />);
+    out.push(<Circle key={`cut-a-${cut.id}`} x={x0} y={y0} radius={3} fill={CUT} listening={false} />);
+    out.push(<Label key={`cut-l-${cut.id}`} x={x1 + 6} y={y1} text={cut.name || 'cut'} />);
+  }
+  if (tr.cut) {
+    const [x0, y0] = sp(tr.cut[0]), [x1, y1] = sp(tr.cut[1]);
+    out.push(<Line key="cut-draft" points={[x0, y0, x1, y1]} stroke={CUT} strokeWidth={2} dash={[7, 3, 2, 3]} listening={false} />);
+    out.push(<Label key="cut-draft-l" x={x1 + 8} y={y1 + 14} text={formatLength(Math.hypot(tr.cut[1][0] - tr.cut[0][0], tr.cut[1][1] - tr.cut[0][1]), ui.system)} />);
+  }
   if (tr.refusal) out.push(<Label key="refusal" x={tr.refusal.sx + 14} y={tr.refusal.sy + 18} text={tr.refusal.text.split('\n')[0]} tone="error" />);
 
   return <Layer listening={false}>{out}</Layer>;
@@ -351,6 +365,7 @@ export function BoardCanvas({ overlay, className }: { overlay?: ReactNode; class
       onPointerMove={(e) => c.pointerMove(pointerInput(e, ref.current!))}
       onPointerUp={(e) => c.pointerUp(pointerInput(e, ref.current!))}
       onPointerCancel={(e) => c.pointerCancel(pointerInput(e, ref.current!))}
+      onPointerLeave={() => c.pointerLeave()}
       onDragOver={(e) => {
         if (e.dataTransfer.types.includes('application/x-dewline-kind')) e.preventDefault();
       }}

@@ -28,7 +28,7 @@ import { createStore } from './store';
 import type { View } from './view';
 import { fitBox, gridSpacing, panBy, toScreen, toWorld, zoomAt } from './view';
 
-export type Tool = { type: 'select' } | { type: 'place-part'; kind: string } | { type: 'place-zone'; kind: ZoneKind } | { type: 'polygon' };
+export type Tool = { type: 'select' } | { type: 'place-part'; kind: string } | { type: 'place-zone'; kind: ZoneKind } | { type: 'polygon' } | { type: 'cut' };
 
 export interface Selection {
   parts: readonly string[];
@@ -60,6 +60,8 @@ export interface UiState {
   canUndo: boolean;
   canRedo: boolean;
   readOnly: boolean;
+  /** The saved cut line whose chart the readout shows. */
+  activeCut: string | null;
 }
 
 /** What changes on every pointer move: drawn on the top layer only. */
@@ -71,6 +73,16 @@ export interface Transient {
   zoneRect: Box | null;
   /** A refused handle or move, shown beside the pointer. */
   refusal: { text: string; sx: number; sy: number } | null;
+  /** The cut line being drawn. */
+  cut: [Point, Point] | null;
+}
+
+/** Where the pointer is over the drawing (world and screen), for the probe; null when it is off the board. */
+export interface PointerSpot {
+  w: [number, number];
+  sx: number;
+  sy: number;
+  pointerType: string;
 }
 
 export interface PointerInput {
@@ -110,6 +122,7 @@ type Gesture =
   | { type: 'marquee'; startW: Point; add: boolean; startS: [number, number] }
   | { type: 'pan'; startS: [number, number]; startView: View; moved: boolean; clearOnClick: boolean }
   | { type: 'zone-rect'; kind: ZoneKind; startW: Point }
+  | { type: 'cut'; startW: Point }
   | { type: 'pinch'; startDist: number; startMid: [number, number]; startView: View };
 
 export const ZONE_TITLES: Record<ZoneKind, string> = {
@@ -134,7 +147,7 @@ const SNAP_PX = 8;
 const DRAG_START_PX = 3;
 
 function emptyTransient(): Transient {
-  return { guides: [], marquee: null, cursor: null, draft: emptyDraft(), zoneRect: null, refusal: null };
+  return { guides: [], marquee: null, cursor: null, draft: emptyDraft(), zoneRect: null, refusal: null, cut: null };
 }
 
 function stateOf(snapshot: SectionSnapshot, version: number): SectionState {
@@ -161,6 +174,8 @@ export class BoardController {
   readonly size: Store<{ width: number; height: number }>;
   readonly ui: Store<UiState>;
   readonly transient: Store<Transient>;
+  /** The pointer over the drawing (updated on every move; only the probe listens). */
+  readonly pointer: Store<PointerSpot | null> = createStore<PointerSpot | null>(null);
 
   private gesture: Gesture = { type: 'none' };
   private pointers = new Map<number, [number, number]>();
@@ -201,6 +216,7 @@ export class BoardController {
       canUndo: false,
       canRedo: false,
       readOnly: !!options.readOnly,
+      activeCut: null,
     });
     this.transient = createStore(emptyTransient());
     const onUpdate = () => {
@@ -215,7 +231,8 @@ export class BoardController {
   }
 
   dispose() {
-    cancelAnimationFrame(this.raf);
+    if (this.raf) cancelAnimationFrame(this.raf);
+    this.raf = 0;
     for (const d of this.disposers) d();
   }
 
@@ -495,6 +512,31 @@ export class BoardController {
     return err;
   }
 
+  /** Save a cut line (rounded to micrometres) and show its chart. */
+  addCut(from: Point, to: Point, name?: string): string | null {
+    let id = '';
+    const n = this.snapshot().cuts.length + 1;
+    const err = this.action(() => {
+      id = ops.putCut(this.doc, this.origin, { name: name ?? `Cut ${n}`, from: [round6(from[0]), round6(from[1])], to: [round6(to[0]), round6(to[1])] });
+    });
+    if (!err) {
+      this.patchUi({ activeCut: id });
+      this.say('Cut line saved; its temperature chart is in the readout.');
+    }
+    return err;
+  }
+
+  deleteCut(id: string): string | null {
+    const err = this.action(() => ops.deleteCut(this.doc, this.origin, id));
+    if (!err && this.ui.get().activeCut === id) this.patchUi({ activeCut: null });
+    return err;
+  }
+
+  /** The pointer left the drawing. */
+  pointerLeave() {
+    if (this.gesture.type === 'none') this.pointer.set(null);
+  }
+
   undo() {
     this.undoManager.stopCapturing();
     this.undoManager.undo();
@@ -533,10 +575,11 @@ export class BoardController {
 
   setTool(tool: Tool) {
     this.patchUi({ tool });
-    this.patchTransient({ draft: emptyDraft(), guides: [], zoneRect: null });
+    this.patchTransient({ draft: emptyDraft(), guides: [], zoneRect: null, cut: null });
     if (tool.type === 'polygon') this.say('Click the vertices; click the first one or press Enter to close; Esc to stop.');
     else if (tool.type === 'place-part') this.say(`Click on the board to place the ${partKind(tool.kind)?.title.toLowerCase() ?? tool.kind}.`);
     else if (tool.type === 'place-zone') this.say(`Drag a rectangle for the ${ZONE_TITLES[tool.kind].toLowerCase()} (or click for a 1 m square).`);
+    else if (tool.type === 'cut') this.say('Drag a line across the section; the readout charts the temperature along it. Esc to stop.');
     else this.patchUi({ message: null });
   }
 
@@ -601,6 +644,7 @@ export class BoardController {
 
   pointerDown(e: PointerInput) {
     this.pointers.set(e.pointerId, [e.sx, e.sy]);
+    this.pointer.set({ w: this.toWorld(e.sx, e.sy), sx: e.sx, sy: e.sy, pointerType: e.pointerType });
     if (this.pointers.size === 2) {
       // Two fingers: pinch and pan; any gesture under way is dropped (its edits stay as one undo step).
       this.endGesture();
@@ -637,6 +681,10 @@ export class BoardController {
     }
     if (tool.type === 'place-zone') {
       this.gesture = { type: 'zone-rect', kind: tool.kind, startW: this.snapped(w, e.alt) };
+      return;
+    }
+    if (tool.type === 'cut') {
+      this.gesture = { type: 'cut', startW: this.snapped(w, e.alt) };
       return;
     }
     // The pick tool: handles first, then parts, then zones, then empty space.
@@ -734,6 +782,7 @@ export class BoardController {
 
   pointerMove(e: PointerInput) {
     if (this.pointers.has(e.pointerId)) this.pointers.set(e.pointerId, [e.sx, e.sy]);
+    if (this.pointers.size <= 1) this.pointer.set({ w: this.toWorld(e.sx, e.sy), sx: e.sx, sy: e.sy, pointerType: e.pointerType });
     // Coalesce: one update per animation frame, with the latest pointer position.
     this.pendingMove = e;
     if (!this.raf) this.raf = requestAnimationFrame(() => {
@@ -773,6 +822,9 @@ export class BoardController {
         return;
       case 'zone-rect':
         this.patchTransient({ zoneRect: rectBetween(g.startW, this.snapped(w, e.alt)) });
+        return;
+      case 'cut':
+        this.patchTransient({ cut: [g.startW, this.snapped(w, e.alt)] });
         return;
       case 'pending-move': {
         if (Math.hypot(e.sx - g.startS[0], e.sy - g.startS[1]) < DRAG_START_PX) return;
@@ -896,6 +948,13 @@ export class BoardController {
       const box = r && r.maxX - r.minX > 1e-6 && r.maxY - r.minY > 1e-6 ? r : { minX: w[0], minY: w[1], maxX: w[0] + 1, maxY: w[1] + 1 };
       const err = this.placeZone(g.kind, box);
       if (!err && !e.shift) this.patchUi({ tool: { type: 'select' } });
+    } else if (g.type === 'cut') {
+      const to = this.snapped(this.toWorld(e.sx, e.sy), e.alt);
+      const [a, b] = [this.toScreen(g.startW), this.toScreen(to)];
+      if (Math.hypot(a[0] - b[0], a[1] - b[1]) >= 6) {
+        const err = this.addCut(g.startW, to);
+        if (!err && !e.shift) this.patchUi({ tool: { type: 'select' } });
+      } else this.say('Drag to draw the cut line (a click is too short).', 'error');
     }
     this.endGesture();
   }
@@ -909,7 +968,7 @@ export class BoardController {
     const wasEditing = ['move', 'handle', 'zone-edge', 'vertex'].includes(this.gesture.type);
     this.gesture = { type: 'none' };
     if (wasEditing) this.undoManager.stopCapturing();
-    this.patchTransient({ guides: [], marquee: null, zoneRect: null, refusal: null });
+    this.patchTransient({ guides: [], marquee: null, zoneRect: null, refusal: null, cut: null });
     if (this.ui.get().moving) this.patchUi({ moving: null });
     this.settled.set(this.section.get());
   }
@@ -1012,6 +1071,9 @@ export class BoardController {
         return true;
       case 'p':
         this.setTool({ type: 'polygon' });
+        return true;
+      case 'c':
+        this.setTool({ type: 'cut' });
         return true;
       case 'f':
         this.fitSelection();

@@ -10,6 +10,7 @@ export const SHORTCUTS: readonly { group: string; items: readonly Shortcut[] }[]
     items: [
       { keys: 'V', what: 'Pick and move (the usual tool)' },
       { keys: 'P', what: 'Draw a free polygon: click the vertices' },
+      { keys: 'C', what: 'Draw a cut line: drag across the section to chart the temperature along it' },
       { keys: 'Enter', what: 'Close the polygon being drawn' },
       { keys: 'Backspace', what: 'While drawing: take back the last vertex' },
       { keys: 'Esc', what: 'Stop the tool, or clear the selection' },

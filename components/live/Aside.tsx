@@ -13,6 +13,7 @@ import { diffResults, headline, signed } from './diff';
 import type { LiveOptions } from './options';
 import { SEGMENT_STYLES } from './segments';
 import type { LiveSession } from './session';
+import { Cuts, Probe, PsiSettings } from './Tools';
 
 const LUT = buildLut();
 const box: React.CSSProperties = { borderTop: '1px solid #ddd6ca', padding: '8px 10px', fontSize: 12, lineHeight: 1.45 };
@@ -75,7 +76,6 @@ export function LiveAside({ live, options }: { live: LiveSession; options: LiveO
           <Row label="Mesh" value={`${r.mesh.level}, ${r.mesh.cells} cells`} id="live-cells" />
           <Row label="Solve time" value={`${st.lastMs.toFixed(0)} ms`} id="live-ms" />
           <SegmentKey />
-          <Cuts live={live} sys={sys} />
           <details>
             <summary>Assumptions ({r.assumptions.length}){r.warnings.length ? `, ${r.warnings.length} warnings` : ''}</summary>
             <ul style={{ paddingLeft: 16 }}>
@@ -86,6 +86,9 @@ export function LiveAside({ live, options }: { live: LiveSession; options: LiveO
           <Caution compact />
         </div>
       )}
+      <Probe live={live} sys={sys} />
+      <Cuts live={live} sys={sys} />
+      <PsiSettings sys={sys} />
       <div style={box}>
         <strong>Compare</strong>{' '}
         <button type="button" onClick={() => live.pinBaseline()} disabled={!r} data-testid="live-pin">Pin as baseline</button>{' '}
@@ -205,6 +208,3 @@ function TempInput({ value, sys, onCommit, label }: { value: number; sys: UnitSy
   );
 }
 
-function Cuts(_: { live: LiveSession; sys: UnitSystem }) {
-  return null;
-}

@@ -13,6 +13,7 @@ import { flowMarks, isotherms } from './contours';
 import type { LiveSession } from './session';
 import { styleFor } from './segments';
 import type { LiveOptions } from './options';
+import { probeAt } from './probe';
 
 const LUT = buildLut();
 
@@ -99,6 +100,29 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
         })()}
         {st.stale && <Text x={10} y={10} text="Updating: the colours show the previous drawing" fontSize={12} fill="#7a3b00" fontStyle="bold" />}
       </Layer>
+      <ProbeLayer live={live} />
     </>
+  );
+}
+
+/** A small label beside the pointer: temperature there and, over a verdict surface, its surface RH. Its own layer, so a pointer move redraws only it. */
+function ProbeLayer({ live }: { live: LiveSession }) {
+  const c = useBoard();
+  const spot = useStore(c.pointer);
+  const st = useStore(live.state);
+  const ui = useStore(c.ui);
+  if (!spot || !st.field || !st.results || ui.tool.type !== 'select' || c.isDragging()) return null;
+  const tol = (spot.pointerType === 'touch' ? 14 : 6) / c.view.get().k;
+  const r = probeAt(c.section.get().resolved.solids, st.field, st.results.surfaces, spot.w[0], spot.w[1], tol);
+  if (r.t === null && !r.segment) return null;
+  const text = `${r.t === null ? '' : formatQuantity('temperature', r.t, ui.system, 1)}${r.segment ? `${r.t === null ? '' : ' · '}surface RH ${(r.segment.rhSurfaceMax * 100).toFixed(0)} %` : ''}`;
+  const w = text.length * 6.2 + 12;
+  return (
+    <Layer listening={false}>
+      <Group x={spot.sx + 14} y={spot.sy + 12}>
+        <Rect width={w} height={18} fill="rgba(255,255,255,0.92)" stroke="#5b3f8c" strokeWidth={0.8} cornerRadius={3} />
+        <Text x={6} y={4} text={text} fontSize={11} fontFamily="system-ui, sans-serif" fill="#1d232b" />
+      </Group>
+    </Layer>
   );
 }

@@ -5,6 +5,14 @@
 import { expect, test } from '@playwright/test';
 import { solveSectionSync } from '../../lib/thermal/section';
 import type { SectionResults } from '../../lib/thermal/types';
+import type { Page } from '@playwright/test';
+import { fieldAt } from '../../components/live/colour';
+import type { GridField } from '../../components/live/colour';
+import { cutLayers, cutProfile, profileRange } from '../../components/live/cutline';
+import { probeAt } from '../../components/live/probe';
+import { lookupMaterial, resolveSection } from '../../lib/section/resolve';
+import type { SectionSnapshot } from '../../lib/section/schema';
+import { formatLength, formatQuantity } from '../../lib/units';
 
 test.setTimeout(300_000);
 
@@ -36,4 +44,179 @@ test('readout follows the drawing and equals the solver on the same snapshot', a
   // plate corner, which the closer slab warms, so the slab's own surfaces are the ones to watch.)
   const slabMin = (r: typeof after.r) => Math.min(...r.surfaces.filter((x) => x.partId === 'slab').map((x) => x.tMin));
   expect(slabMin(after.r)).toBeLessThan(slabMin(before.r) - 1);
+});
+
+// ---- probe, cut lines, psi settings, results during a drag -------------------------------------------
+
+
+type Live = { __dewline: { results: SectionResults; live: { version: number; mesh: string; refreshes: number; stale: boolean }; snapshot(): SectionSnapshot; partBox(id: string): { minX: number; minY: number; maxX: number; maxY: number } | null; toClient(x: number, y: number): { x: number; y: number }; view(): { k: number }; controller: { section: { get(): { version: number } }; pointer: { get(): { w: [number, number] } | null } } } };
+
+const gridOf = (r: SectionResults): GridField => {
+  const t = new Float64Array(r.field.t.length);
+  r.field.t.forEach((v, k) => (t[k] = v === null ? NaN : v));
+  return { xs: r.field.xs, ys: r.field.ys, nx: r.field.xs.length - 1, ny: r.field.ys.length - 1, t };
+};
+
+/** Wait until the page shows default-mesh results for the drawing as it is now. */
+async function settled(page: Page) {
+  await page.waitForFunction(() => {
+    const w = window as unknown as Live;
+    return w.__dewline?.live?.mesh === 'default' && w.__dewline.live.version === w.__dewline.controller.section.get().version;
+  }, null, { timeout: 240_000 });
+  await expect(page.getByTestId('live-readout')).toHaveAttribute('data-stale', 'no', { timeout: 120_000 });
+}
+const snap = (page: Page) => page.evaluate(() => (window as unknown as Live).__dewline.snapshot());
+const toClient = (page: Page, x: number, y: number) => page.evaluate(([a, b]) => (window as unknown as Live).__dewline.toClient(a, b), [x, y] as const);
+
+test('the probe shows temperature and material under the pointer, and surface RH over a verdict surface', async ({ page }, info) => {
+  await page.goto('/section?template=slab-edge-break');
+  await settled(page);
+  const s = await snap(page);
+  const ref = solveSectionSync(s, { mesh: 'default' });
+  const field = gridOf(ref);
+  const solids = resolveSection(s).solids;
+  const k = await page.evaluate(() => (window as unknown as Live).__dewline.view().k);
+
+  // Over the middle of the slab.
+  const slab = (await page.evaluate(() => (window as unknown as Live).__dewline.partBox('slab')))!;
+  const p = await toClient(page, slab.minX + 0.3, (slab.minY + slab.maxY) / 2);
+  await page.mouse.move(p.x, p.y);
+  await expect(page.getByTestId('probe-t')).not.toHaveText('–');
+  const w = (await page.evaluate(() => (window as unknown as Live).__dewline.controller.pointer.get()))!.w;
+  const expected = probeAt(solids, field, ref.surfaces, w[0], w[1], 6 / k);
+  expect(expected.partId).toBe('slab');
+  expect(expected.t).toBeCloseTo(fieldAt(field, w[0], w[1]), 12);
+  await expect(page.getByTestId('probe-t')).toHaveText(formatQuantity('temperature', expected.t!, 'si', 2));
+  await expect(page.getByTestId('probe-material')).toHaveText(lookupMaterial(resolveSection(s).materials, expected.materialId!)!.name);
+  await expect(page.getByTestId('probe-surface')).toHaveCount(0);
+
+  // Over the coldest verdict surface.
+  const seg = ref.surfaces.find((x) => x.id === ref.coldest!.segmentId)!;
+  const q = await toClient(page, (seg.from[0] + seg.to[0]) / 2, (seg.from[1] + seg.to[1]) / 2);
+  await page.mouse.move(q.x, q.y);
+  await expect(page.getByTestId('probe-surface')).toBeVisible();
+  const w2 = (await page.evaluate(() => (window as unknown as Live).__dewline.controller.pointer.get()))!.w;
+  const e2 = probeAt(solids, field, ref.surfaces, w2[0], w2[1], 6 / k);
+  expect(e2.segment).not.toBeNull();
+  await expect(page.getByTestId('probe-rh')).toHaveText(`${(e2.segment!.rhSurfaceMax * 100).toFixed(1)} %`);
+  await expect(page.getByTestId('probe-tmin')).toHaveText(formatQuantity('temperature', e2.segment!.tMin, 'si', 2));
+  const file = info.outputPath('probe.png');
+  await page.screenshot({ path: file });
+  await info.attach('probe', { path: file, contentType: 'image/png' });
+});
+
+test('a cut line is drawn, saved, charted with its layers, used for psi with an editable convention, and deleted', async ({ page }, info) => {
+  await page.goto('/section?template=slab-edge-break');
+  await settled(page);
+  const cuts0 = (await snap(page)).cuts.length;
+
+  // Draw a cut across the framed wall, from the outdoor air to the room (Alt: no snapping).
+  await page.getByTestId('cut-tool').click();
+  const a = await toClient(page, -0.3, 1.0), b = await toClient(page, 0.5, 1.0);
+  await page.keyboard.down('Alt');
+  await page.mouse.move(a.x, a.y);
+  await page.mouse.down();
+  await page.mouse.move(b.x, b.y, { steps: 8 });
+  await page.mouse.up();
+  await page.keyboard.up('Alt');
+  const s1 = await snap(page);
+  expect(s1.cuts.length).toBe(cuts0 + 1);
+  const cut = s1.cuts[s1.cuts.length - 1];
+  const k = await page.evaluate(() => (window as unknown as Live).__dewline.view().k);
+  expect(Math.abs(cut.from[0] + 0.3)).toBeLessThan(1.5 / k);
+  expect(Math.abs(cut.to[0] - 0.5)).toBeLessThan(1.5 / k);
+  expect(Math.abs(cut.from[1] - 1.0)).toBeLessThan(1.5 / k);
+
+  // Its chart: temperatures from the solver's field, one row per solid layer crossed.
+  await expect(page.getByTestId('cut-chart')).toBeVisible();
+  const ref = solveSectionSync(s1, { mesh: 'default' });
+  const solids = resolveSection(s1).solids;
+  const layers = cutLayers(solids, cut.from, cut.to).filter((l) => l.partId);
+  expect(layers.length).toBeGreaterThanOrEqual(2); // the framed wall is more than one layer
+  await expect(page.getByTestId('cut-layer-length')).toHaveText(layers.map((l) => formatLength(l.s1 - l.s0, 'si')));
+  await expect(page.getByTestId('cut-boundary')).toHaveCount(cutLayers(solids, cut.from, cut.to).length - 1);
+  const range = profileRange(cutProfile(gridOf(ref), solids, cut.from, cut.to))!;
+  await expect(page.getByTestId('cut-min')).toHaveText(formatQuantity('temperature', range.lo, 'si', 2));
+  await expect(page.getByTestId('cut-max')).toHaveText(formatQuantity('temperature', range.hi, 'si', 2));
+  let file = info.outputPath('cut-line.png');
+  await page.screenshot({ path: file });
+  await info.attach('cut-line', { path: file, contentType: 'image/png' });
+
+  // Use it as the flanking wall's reference cut: psi appears and equals the solver on the document.
+  await expect(page.getByTestId('live-psi')).toHaveCount(0);
+  await page.getByTestId('cut-to-flanking').click();
+  const len = page.getByTestId('flanking-length-0');
+  await len.fill('1.4 m');
+  await len.press('Enter');
+  await expect.poll(async () => (await snap(page)).analysis.flanking[0]?.length).toBeCloseTo(1.4, 9);
+  await settled(page);
+  const s2 = await snap(page);
+  const r2 = solveSectionSync(s2, { mesh: 'default' });
+  expect(r2.psi).not.toBeNull();
+  await expect(page.getByTestId('live-psi')).toHaveText(formatQuantity('psi', r2.psi!.psi, 'si'));
+  await expect(page.getByText('psi (internal dimensions)')).toBeVisible();
+
+  // Change the convention and the length measured under it: the document and the readout follow.
+  await page.getByTestId('live-convention').selectOption('external');
+  await len.fill('1.6 m');
+  await len.press('Enter');
+  await expect.poll(async () => (await snap(page)).analysis).toMatchObject({ convention: 'external', flanking: [{ length: 1.6 }] });
+  await settled(page);
+  await expect(page.getByText('psi (external dimensions)')).toBeVisible();
+  const r3 = solveSectionSync(await snap(page), { mesh: 'default' });
+  await expect(page.getByTestId('live-psi')).toHaveText(formatQuantity('psi', r3.psi!.psi, 'si'));
+  // The longer flanking length takes U l more off psi (ISO 10211: psi = L2D - sum U_j l_j).
+  expect(r3.psi!.psi).toBeCloseTo(r2.psi!.psi - 0.2 * r2.psi!.flanking[0].u, 9);
+  file = info.outputPath('psi-external.png');
+  await page.screenshot({ path: file });
+  await info.attach('psi-external', { path: file, contentType: 'image/png' });
+
+  // A bad length is refused at the field and changes nothing.
+  await len.fill('-2 m');
+  await len.press('Enter');
+  await expect(page.getByTestId('flanking-length-0-error')).toContainText('must be at least 0');
+  expect((await snap(page)).analysis.flanking[0].length).toBeCloseTo(1.6, 9);
+
+  // Delete the cut: gone from the document (the flanking element keeps its own copy of the line).
+  await page.getByTestId(`cut-delete-${cut.id}`).click();
+  expect((await snap(page)).cuts.map((c) => c.id)).not.toContain(cut.id);
+});
+
+test('while a part is dragged fresh results keep arriving; after release the readout equals the solver', async ({ page }, info) => {
+  await page.goto('/section?template=slab-edge-break');
+  await settled(page);
+  const fb = (await page.evaluate(() => (window as unknown as Live).__dewline.partBox('footing')))!;
+  const start = await toClient(page, fb.minX + 0.15, (fb.minY + fb.maxY) / 2);
+  const seen: { version: number; mesh: string; refreshes: number }[] = [];
+  const read = () => page.evaluate(() => { const l = (window as unknown as Live).__dewline.live; return { version: l.version, mesh: l.mesh, refreshes: l.refreshes }; });
+  const r0 = await read();
+  await page.mouse.move(start.x, start.y);
+  await page.mouse.down();
+  // A slow drag: 40 steps of 2 px, a tenth of a second apart.
+  for (let i = 1; i <= 40; i++) {
+    await page.mouse.move(start.x + 2 * i, start.y);
+    await page.waitForTimeout(100);
+    seen.push(await read());
+  }
+  const during = await read();
+  await page.mouse.up();
+  const previews = new Set(seen.filter((x) => x.mesh === 'preview' && x.version > r0.version).map((x) => x.version));
+  info.annotations.push({ type: 'results during the drag', description: `${during.refreshes - r0.refreshes} results, ${previews.size} distinct preview versions over ${seen.length} steps` });
+  expect(during.refreshes - r0.refreshes).toBeGreaterThanOrEqual(2);
+  expect(previews.size).toBeGreaterThanOrEqual(2);
+  // Fresh: the versions shown rise during the drag.
+  expect(Math.max(...previews)).toBeGreaterThan(Math.min(...previews));
+
+  await settled(page);
+  const fb2 = (await page.evaluate(() => (window as unknown as Live).__dewline.partBox('footing')))!;
+  expect(fb2.minX).toBeGreaterThan(fb.minX);
+  const after = await page.evaluate(() => { const w = window as unknown as Live; return { r: w.__dewline.results, s: w.__dewline.snapshot() }; });
+  const ref = solveSectionSync(after.s, { mesh: 'default' });
+  expect(after.r.psiGround!.psiG).toBeCloseTo(ref.psiGround!.psiG, 9);
+  expect(after.r.coldest!.t).toBeCloseTo(ref.coldest!.t, 9);
+  await expect(page.getByTestId('live-psig')).toHaveText(formatQuantity('psi', ref.psiGround!.psiG, 'si'));
+  await expect(page.getByTestId('live-coldest')).toHaveText(formatQuantity('temperature', ref.coldest!.t, 'si', 2));
+  const file = info.outputPath('after-drag.png');
+  await page.screenshot({ path: file });
+  await info.attach('after-drag', { path: file, contentType: 'image/png' });
 });

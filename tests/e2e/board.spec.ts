@@ -1,0 +1,251 @@
+/**
+ * The drawing board in Chromium, as a person uses it: pointer, keyboard and the side panel. Every check
+ * reads the document itself (window.__dewline.snapshot()), and screenshots are kept as test artifacts.
+ */
+import { expect, test } from '@playwright/test';
+import type { Page, TestInfo } from '@playwright/test';
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { templateByName } from '../../lib/section/templates';
+
+test.setTimeout(240_000);
+
+type Box = { minX: number; minY: number; maxX: number; maxY: number };
+type Snap = { name: string; parts: { id: string; kind: string; locked: boolean; thickness?: number; points?: [number, number][] }[] };
+type Dew = {
+  snapshot(): Snap;
+  partBox(id: string): Box | null;
+  toClient(x: number, y: number): { x: number; y: number };
+  selection(): { parts: string[]; zones: string[] };
+  view(): { k: number; ox: number; oy: number };
+  canUndo(): number;
+};
+/** Run `fn` on window.__dewline in the page (the function travels as its source text). */
+const dew = <T>(page: Page, fn: (d: Dew) => T) =>
+  page.evaluate((src) => new Function('d', `return (${src})(d)`)((window as unknown as { __dewline: unknown }).__dewline), fn.toString()) as Promise<T>;
+
+async function openTemplate(page: Page, name = 'slab-edge-break') {
+  await page.goto(`/section?template=${name}`);
+  await page.waitForFunction(() => Boolean((window as unknown as { __dewline?: { controller?: unknown } }).__dewline?.controller), null, { timeout: 90_000 });
+  await expect(page.getByTestId('board-canvas').locator('canvas').first()).toBeVisible();
+}
+
+const snapshot = (page: Page) => page.evaluate(() => (window as unknown as { __dewline: Dew }).__dewline.snapshot());
+const box = (page: Page, id: string) => page.evaluate((i) => (window as unknown as { __dewline: Dew }).__dewline.partBox(i), id);
+const client = (page: Page, x: number, y: number) => page.evaluate(([a, b]) => (window as unknown as { __dewline: Dew }).__dewline.toClient(a, b), [x, y] as const);
+async function centreOf(page: Page, id: string) {
+  const b = await box(page, id);
+  expect(b, `part ${id} is drawn`).not.toBeNull();
+  return client(page, (b!.minX + b!.maxX) / 2, (b!.minY + b!.maxY) / 2);
+}
+const part = (s: Snap, id: string) => s.parts.find((p) => p.id === id);
+
+async function shot(page: Page, info: TestInfo, name: string) {
+  const file = info.outputPath(`${name}.png`);
+  await page.screenshot({ path: file });
+  await info.attach(name, { path: file, contentType: 'image/png' });
+}
+
+/** A slow drag with the mouse: down, `steps` moves, up. */
+async function drag(page: Page, from: { x: number; y: number }, dx: number, dy: number, steps = 12) {
+  await page.mouse.move(from.x, from.y);
+  await page.mouse.down();
+  await page.mouse.move(from.x + dx, from.y + dy, { steps });
+  await page.mouse.up();
+}
+
+test('edit a template: type a thickness, drag the wall, draw a polygon, undo twice, save and reopen', async ({ page }, info) => {
+  await openTemplate(page);
+  const start = await snapshot(page);
+  expect(part(start, 'edge')!.thickness).toBeCloseTo(0.025, 12);
+
+  // Select the slab-edge board by clicking it on the canvas.
+  await page.mouse.click(...Object.values(await centreOf(page, 'edge')) as [number, number]);
+  await expect.poll(() => dew(page, (d) => d.selection().parts)).toEqual(['edge']);
+  await expect(page.getByTestId('part-panel')).toBeVisible();
+
+  // Type a new thickness with its unit.
+  const field = page.getByTestId('field-thickness');
+  await field.fill('40 mm');
+  await field.press('Enter');
+  await expect.poll(async () => part(await snapshot(page), 'edge')!.thickness).toBeCloseTo(0.04, 12);
+  await expect(field).toHaveValue('40 mm');
+  await shot(page, info, '1-thickness-typed');
+
+  // A bad entry is refused at the field and changes nothing.
+  await field.fill('-3 mm');
+  await field.press('Enter');
+  await expect(page.getByTestId('field-thickness-error')).toHaveText('must be greater than 0, got -3 mm');
+  expect(part(await snapshot(page), 'edge')!.thickness).toBeCloseTo(0.04, 12);
+  await field.press('Escape');
+
+  // Drag the framed wall 40 px to the right, without snapping (Alt), in a slow multi-step drag.
+  const k = await dew(page, (d) => d.view().k);
+  const wall0 = (await box(page, 'wall'))!;
+  await page.keyboard.down('Alt');
+  await drag(page, await centreOf(page, 'wall'), 40, 0);
+  await page.keyboard.up('Alt');
+  const wall1 = (await box(page, 'wall'))!;
+  expect(wall1.minX - wall0.minX).toBeCloseTo(40 / k, 6);
+  expect(wall1.minY).toBeCloseTo(wall0.minY, 9);
+  await shot(page, info, '2-wall-dragged');
+
+  // Draw a free polygon in the room: four clicks, then a click on the first vertex closes it.
+  await page.keyboard.press('p');
+  const corners: [number, number][] = [[1.0, 0.6], [1.4, 0.6], [1.4, 1.0], [1.1, 1.1]];
+  await page.keyboard.down('Alt');
+  for (const [x, y] of corners) {
+    const p = await client(page, x, y);
+    await page.mouse.click(p.x, p.y);
+  }
+  const first = await client(page, ...corners[0]);
+  await page.mouse.click(first.x + 2, first.y - 1);
+  await page.keyboard.up('Alt');
+  const withPoly = await snapshot(page);
+  const poly = withPoly.parts.find((p) => p.kind === 'polygon');
+  expect(poly, 'a polygon part was added').toBeTruthy();
+  const pb = (await box(page, poly!.id))!;
+  const tol = 1.5 / k; // a click lands within a pixel and a half of where it was aimed
+  expect(pb.minX).toBeCloseTo(1.0, 1);
+  expect(Math.abs(pb.minX - 1.0)).toBeLessThan(tol);
+  expect(Math.abs(pb.maxX - 1.4)).toBeLessThan(tol);
+  expect(Math.abs(pb.minY - 0.6)).toBeLessThan(tol);
+  expect(Math.abs(pb.maxY - 1.1)).toBeLessThan(tol);
+  expect(poly!.points!.length).toBe(5); // a closed ring: four vertices and the first repeated
+  await shot(page, info, '3-polygon-drawn');
+
+  // Undo twice: the polygon goes, then the drag; the typed thickness stays.
+  await page.getByTestId('undo').click();
+  await page.getByTestId('undo').click();
+  const undone = await snapshot(page);
+  expect(undone.parts.some((p) => p.kind === 'polygon')).toBe(false);
+  const wall2 = (await box(page, 'wall'))!;
+  expect(wall2.minX).toBeCloseTo(wall0.minX, 9);
+  expect(part(undone, 'edge')!.thickness).toBeCloseTo(0.04, 12);
+  expect(undone.parts.map((p) => p.id).sort()).toEqual(start.parts.map((p) => p.id).sort());
+
+  // Save to a file: the file is the document.
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('save').click()]);
+  expect(download.suggestedFilename()).toBe('slab-on-ground-slab-edge-break.dewline.json');
+  const saved = info.outputPath('saved.dewline.json');
+  await download.saveAs(saved);
+  const savedJson = JSON.parse(fs.readFileSync(saved, 'utf8'));
+  expect(savedJson).toEqual(await snapshot(page));
+
+  // Change the document, then open the saved file: the same document comes back.
+  await page.mouse.click(...Object.values(await centreOf(page, 'footing')) as [number, number]);
+  await page.keyboard.press('Delete');
+  expect((await snapshot(page)).parts.some((p) => p.id === 'footing')).toBe(false);
+  await page.getByTestId('file-input').setInputFiles(saved);
+  await expect.poll(() => snapshot(page)).toEqual(savedJson);
+  await expect(page.getByTestId('status')).toContainText(`Opened '${savedJson.name}'`);
+  await shot(page, info, '4-reopened');
+});
+
+test('multi-select with shift and a box, then delete; undo brings them back', async ({ page }, info) => {
+  await openTemplate(page);
+  const n0 = (await snapshot(page)).parts.length;
+  await page.mouse.click(...Object.values(await centreOf(page, 'footing')) as [number, number]);
+  await page.keyboard.down('Shift');
+  await page.mouse.click(...Object.values(await centreOf(page, 'plate')) as [number, number]);
+  await page.keyboard.up('Shift');
+  await expect.poll(() => dew(page, (d) => [...d.selection().parts].sort())).toEqual(['footing', 'plate']);
+  await expect(page.getByTestId('multi-panel')).toBeVisible();
+  await shot(page, info, 'multi-selected');
+  await page.getByTestId('delete').click();
+  const after = await snapshot(page);
+  expect(after.parts.length).toBe(n0 - 2);
+  expect(after.parts.some((p) => p.id === 'footing' || p.id === 'plate')).toBe(false);
+  await page.keyboard.press('Control+z');
+  expect((await snapshot(page)).parts.length).toBe(n0);
+
+});
+
+test('a locked part cannot be dragged; unlocked it can', async ({ page }, info) => {
+  await openTemplate(page);
+  const c = await centreOf(page, 'footing');
+  await page.mouse.click(c.x, c.y);
+  await page.getByTestId('lock').click();
+  await expect.poll(async () => part(await snapshot(page), 'footing')!.locked).toBe(true);
+  const b0 = (await box(page, 'footing'))!;
+  await drag(page, c, 50, 30);
+  expect(await box(page, 'footing')).toEqual(b0);
+  await expect(page.getByTestId('status')).toContainText('is locked');
+  await shot(page, info, 'locked-drag-refused');
+  // The lock is in the document and can be undone like any edit; unlocked, the same drag moves it.
+  await page.getByTestId('lock').click();
+  expect(part(await snapshot(page), 'footing')!.locked).toBe(false);
+  await drag(page, c, 50, 0);
+  expect((await box(page, 'footing'))!.minX).toBeGreaterThan(b0.minX);
+});
+
+test('the help overlay lists the shortcuts and closes', async ({ page }, info) => {
+  await openTemplate(page);
+  await expect(page.getByTestId('help-overlay')).toHaveCount(0);
+  await page.getByTestId('help').click();
+  const help = page.getByTestId('help-overlay');
+  await expect(help).toBeVisible();
+  await expect(help).toContainText('Undo your last change');
+  await expect(help).toContainText('Draw a free polygon');
+  await shot(page, info, 'help-open');
+  await page.keyboard.press('Escape');
+  await expect(help).toHaveCount(0);
+  // The ? key opens it too, and the Close button shuts it.
+  await page.keyboard.press('?');
+  await expect(help).toBeVisible();
+  await help.getByRole('button', { name: 'Close' }).click();
+  await expect(help).toHaveCount(0);
+});
+
+test('a bad file gives the same messages as `dewline check` and leaves the board unchanged', async ({ page }, info) => {
+  const s = templateByName('slab-edge-break')!.build() as unknown as { parts: Record<string, unknown>[]; zones: Record<string, unknown>[] };
+  s.parts.find((p) => p.id === 'edge')!.thickness = 0;
+  s.zones[0].kind = 'sauna';
+  const file = info.outputPath('broken.dewline.json');
+  fs.writeFileSync(file, JSON.stringify(s, null, 2));
+  // The command line, run for real: each line is `FILE: path: reason`.
+  const cli = spawnSync(process.execPath, [path.resolve('bin/dewline.mjs'), 'check', file], { encoding: 'utf8' });
+  expect(cli.status).not.toBe(0);
+  const cliLines = cli.stderr.trim().split('\n').map((l) => l.slice(`${file}: `.length));
+  expect(cliLines.length).toBeGreaterThanOrEqual(2);
+
+  await openTemplate(page);
+  const before = await snapshot(page);
+  await page.getByTestId('file-input').setInputFiles(file);
+  const modal = page.getByTestId('file-problems');
+  await expect(modal).toBeVisible();
+  const shown = (await modal.locator('pre').innerText()).trim().split('\n');
+  expect(shown).toEqual(cliLines);
+  await shot(page, info, 'bad-file');
+  expect(await snapshot(page)).toEqual(before);
+  await modal.getByRole('button', { name: 'Close' }).click();
+  await expect(modal).toHaveCount(0);
+});
+
+test.describe('tablet', () => {
+  test.use({ hasTouch: true, viewport: { width: 1024, height: 768 } });
+  test('a tap selects a part and a one-finger drag moves it', async ({ page }, info) => {
+    await openTemplate(page);
+    const c = await centreOf(page, 'footing');
+    await page.touchscreen.tap(c.x, c.y);
+    await expect.poll(() => dew(page, (d) => d.selection().parts)).toEqual(['footing']);
+    await shot(page, info, 'tablet-tap-selected');
+    // A one-finger drag through the touch protocol (Chromium turns it into pointer events of type touch).
+    const b0 = (await box(page, 'footing'))!;
+    const cdp = await page.context().newCDPSession(page);
+    const touch = (type: 'touchStart' | 'touchMove' | 'touchEnd', x: number, y: number) => cdp.send('Input.dispatchTouchEvent', { type, touchPoints: type === 'touchEnd' ? [] : [{ x, y, id: 1 }] });
+    // Once selected, the footing shows its handles, and a finger near one takes the handle (20 px reach):
+    // grab the body a fifth of the way along, away from them.
+    const g = await client(page, b0.minX + 0.2 * (b0.maxX - b0.minX), (b0.minY + b0.maxY) / 2);
+    await page.waitForTimeout(500); // a finger comes back later than a double tap would
+    await touch('touchStart', g.x, g.y);
+    for (let i = 1; i <= 10; i++) {
+      await touch('touchMove', g.x + i * 6, g.y);
+      await page.waitForTimeout(30);
+    }
+    await touch('touchEnd', g.x + 60, g.y);
+    await expect.poll(async () => (await box(page, 'footing'))!.minX).toBeGreaterThan(b0.minX + 0.05);
+    await shot(page, info, 'tablet-dragged');
+  });
+});
