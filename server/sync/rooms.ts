@@ -369,6 +369,24 @@ export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log
         if (rooms.has(room.id)) unloadRoom(room);
       }
     },
+    /** The room's whole document as one update: from memory when loaded, else rebuilt from storage. */
+    currentState(roomId: string): Uint8Array {
+      const loaded = rooms.get(roomId);
+      if (loaded) return Y.encodeStateAsUpdate(loaded.doc);
+      const stored = storage.loadRoom(roomId);
+      const doc = new Y.Doc({ gc: true });
+      if (stored.snapshot) Y.applyUpdate(doc, stored.snapshot);
+      for (const u of stored.updates) {
+        try {
+          Y.applyUpdate(doc, u.data);
+        } catch {
+          // same rule as loading: an update that does not apply is skipped (and logged there)
+        }
+      }
+      const state = Y.encodeStateAsUpdate(doc);
+      doc.destroy();
+      return state;
+    },
     /** The loaded room with this internal id, if any (tests and stats). */
     loadedRoom(id: string): Room | undefined {
       return rooms.get(id);
