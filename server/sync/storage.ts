@@ -107,6 +107,11 @@ export function openStorage(file: string, opts: { sync?: SyncMode } = {}) {
     q.setSealed.run(viewKeySealed, roomId);
   });
 
+  const appendMany = db.transaction((roomId: string, datas: readonly Uint8Array[]) => {
+    const now = Date.now();
+    return datas.map((d) => Number(q.append.run(roomId, d, now).lastInsertRowid));
+  });
+
   const writeSnapshot = db.transaction((roomId: string, data: Uint8Array, upToSeq: number) => {
     q.upsertSnapshot.run(roomId, data, Date.now());
     q.deleteUpdatesUpTo.run(roomId, upToSeq);
@@ -133,6 +138,10 @@ export function openStorage(file: string, opts: { sync?: SyncMode } = {}) {
     /** Appends one update (committed when this returns); returns its seq. */
     appendUpdate(roomId: string, data: Uint8Array): number {
       return Number(q.append.run(roomId, data, Date.now()).lastInsertRowid);
+    },
+    /** Appends several updates in one transaction (one commit, one sync to disk); returns their seqs in order. */
+    appendUpdates(roomId: string, datas: readonly Uint8Array[]): number[] {
+      return appendMany(roomId, datas);
     },
     loadRoom(roomId: string): StoredRoom {
       const snap = q.snapshot.get(roomId) as { data: Buffer } | undefined;
