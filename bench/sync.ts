@@ -75,7 +75,9 @@ function rssMiB(pid: number): number | null {
 }
 
 async function startServer(dbFile: string): Promise<{ child: ChildProcess; port: number }> {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'server/sync-main.ts'), '--port', '0', '--host', '127.0.0.1', '--db', dbFile], {
+  // extra node flags for the server only, e.g. DEWLINE_BENCH_SERVER_NODE_ARGS='--cpu-prof --cpu-prof-dir=/tmp/prof'
+  const extra = (process.env.DEWLINE_BENCH_SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const child = spawn(process.execPath, [...extra, '--import', 'tsx', path.join(root, 'server/sync-main.ts'), '--port', '0', '--host', '127.0.0.1', '--db', dbFile], {
     cwd: root,
     env: { ...process.env, DEWLINE_LOG_LEVEL: 'warn', DEWLINE_API_REQUESTS_PER_MINUTE: '1000' },
     stdio: ['ignore', 'pipe', 'inherit'],

@@ -4,12 +4,11 @@
  * theirs and nobody's history is rewritten).
  */
 import * as Y from 'yjs';
-import { readSection, writeDiff } from '@/lib/section/doc';
+import { docToRaw, readSection, writeDiff } from '@/lib/section/doc';
 import { formatProblem } from '@/lib/section/errors';
 import type { SectionSnapshot } from '@/lib/section/schema';
 
-/** The section held by a version's document (a Yjs update); throws with the problems when invalid. */
-export function sectionOfVersion(update: Uint8Array): SectionSnapshot {
+function docOfUpdate(update: Uint8Array): Y.Doc {
   const d = new Y.Doc();
   try {
     Y.applyUpdate(d, update);
@@ -17,6 +16,12 @@ export function sectionOfVersion(update: Uint8Array): SectionSnapshot {
     d.destroy();
     throw new Error(`the stored version is not a readable document (${(err as Error).message})`);
   }
+  return d;
+}
+
+/** The section held by a version's document (a Yjs update); throws with the problems when invalid. */
+export function sectionOfVersion(update: Uint8Array): SectionSnapshot {
+  const d = docOfUpdate(update);
   const v = readSection(d);
   d.destroy();
   if (!v.ok) throw new Error(`the stored version does not hold a valid section: ${v.problems.map(formatProblem).join('; ')}`);
@@ -25,13 +30,17 @@ export function sectionOfVersion(update: Uint8Array): SectionSnapshot {
 
 /**
  * Makes `doc` hold the section of `update` by writing only the differences, in one transaction with
- * `origin`. Returns the number of top-level records (parts, zones, materials, cuts) that differed.
+ * `origin`. The version must hold a valid section; the current document need not (a broken join
+ * someone made is exactly what a restore is for): both are compared as their raw stored records.
+ * Returns the number of records (parts, zones, materials, cuts, plus 1 for name, description or
+ * analysis) that differed.
  */
 export function restoreVersion(doc: Y.Doc, update: Uint8Array, origin: unknown): number {
-  const then = sectionOfVersion(update);
-  const v = readSection(doc);
-  if (!v.ok) throw new Error(`the current document is not a valid section: ${v.problems.map(formatProblem).join('; ')}`);
-  const now = v.section;
+  sectionOfVersion(update);
+  const d = docOfUpdate(update);
+  const then = docToRaw(d) as unknown as SectionSnapshot;
+  d.destroy();
+  const now = docToRaw(doc) as unknown as SectionSnapshot;
   doc.transact(() => writeDiff(doc, now, then), origin);
   return countDifferences(now, then);
 }
@@ -39,7 +48,7 @@ export function restoreVersion(doc: Y.Doc, update: Uint8Array, origin: unknown):
 /** How many records (by id) differ between two sections, plus 1 if the name, description or analysis differ. */
 export function countDifferences(a: SectionSnapshot, b: SectionSnapshot): number {
   let n = 0;
-  const lists = (x: readonly { id: string }[], y: readonly { id: string }[]) => {
+  const lists = (x: readonly { id: string }[] = [], y: readonly { id: string }[] = []) => {
     const ya = new Map(y.map((r) => [r.id, JSON.stringify(r)]));
     const seen = new Set<string>();
     for (const r of x) {
