@@ -4,6 +4,9 @@
  *   POST /api/rooms                      -> 201 {editKey, viewKey}
  *   GET  /api/keys/<key>                 -> 200 {role:'edit', viewKey} | {role:'view'} ; 404
  *   POST /api/rooms/<editKey>/rotate     body {"which":"edit"|"view"} -> 200 {editKey, viewKey}
+ *   GET  /api/rooms/<editKey>/versions   -> 200 {versions: [{id, name, createdAt, bytes}]} newest first
+ *   POST /api/rooms/<editKey>/versions   body {"name": "..."} -> 201 {id, name, createdAt, bytes}
+ *   GET  /api/rooms/<editKey>/versions/<id> -> 200 application/octet-stream: the document then (a Yjs update)
  *   GET  /healthz                        -> 200 {ok, rooms, connections}
  */
 import type http from 'node:http';
@@ -79,12 +82,35 @@ export function parseRotateBody(text: string): { which: 'edit' | 'view' } {
   return { which };
 }
 
+/** Most named versions one room keeps. */
+export const MAX_VERSIONS_PER_ROOM = 200;
+/** Longest version name, characters. */
+export const MAX_VERSION_NAME = 80;
+
+/** Parses the body of a new named version; throws HttpError(400) naming what is wrong. */
+export function parseVersionBody(text: string): { name: string } {
+  let body: unknown;
+  try {
+    body = JSON.parse(text);
+  } catch {
+    throw new HttpError(400, 'body must be JSON: {"name":"..."}');
+  }
+  const raw = (body as { name?: unknown } | null)?.name;
+  if (typeof raw !== 'string') throw new HttpError(400, 'field "name" must be a string');
+  const name = raw.replace(/\s+/g, ' ').trim();
+  if (name.length === 0) throw new HttpError(400, 'field "name" must not be empty');
+  if (name.length > MAX_VERSION_NAME) throw new HttpError(400, `field "name" must be at most ${MAX_VERSION_NAME} characters`);
+  return { name };
+}
+
 /** Route of an API path, or null when the path is not ours. Keys in the path are not validated here. */
 export function matchApiRoute(pathname: string):
   | { route: 'health' }
   | { route: 'createRoom' }
   | { route: 'lookupKey'; key: string }
   | { route: 'rotate'; key: string }
+  | { route: 'versions'; key: string }
+  | { route: 'version'; key: string; id: number }
   | null {
   if (pathname === '/healthz') return { route: 'health' };
   if (pathname === '/api/rooms' || pathname === '/api/rooms/') return { route: 'createRoom' };
@@ -92,6 +118,10 @@ export function matchApiRoute(pathname: string):
   if (m) return { route: 'lookupKey', key: decodeURIComponent(m[1]) };
   m = /^\/api\/rooms\/([^/]*)\/rotate\/?$/.exec(pathname);
   if (m) return { route: 'rotate', key: decodeURIComponent(m[1]) };
+  m = /^\/api\/rooms\/([^/]*)\/versions\/?$/.exec(pathname);
+  if (m) return { route: 'versions', key: decodeURIComponent(m[1]) };
+  m = /^\/api\/rooms\/([^/]*)\/versions\/([0-9]{1,15})\/?$/.exec(pathname);
+  if (m) return { route: 'version', key: decodeURIComponent(m[1]), id: Number(m[2]) };
   return null;
 }
 
@@ -202,6 +232,31 @@ async function serve(
       const closed = rooms.closeRoleInRoom(found.roomId, which, closeCodes.keyRevoked, 'key rotated');
       log.info('key rotated', { which, key: keyTag(editKey), closed });
       sendJson(res, 200, { editKey, viewKey });
+      return;
+    }
+    case 'versions':
+    case 'version': {
+      const found = isWellFormedKey(route.key) ? storage.findKey(hashKey(route.key)) : null;
+      if (!found) throw new HttpError(404, 'unknown key');
+      if (found.role !== 'edit') throw new HttpError(403, 'named versions need the edit link');
+      if (route.route === 'version') {
+        if (method !== 'GET') throw new HttpError(405, 'use GET');
+        const data = storage.versionData(found.roomId, route.id);
+        if (!data) throw new HttpError(404, 'no such version in this room');
+        res.writeHead(200, { 'content-type': 'application/octet-stream', 'content-length': data.length, 'cache-control': 'no-store', 'x-content-type-options': 'nosniff' });
+        res.end(Buffer.from(data));
+        return;
+      }
+      if (method === 'GET') {
+        sendJson(res, 200, { versions: storage.listVersions(found.roomId) });
+        return;
+      }
+      if (method !== 'POST') throw new HttpError(405, 'use GET or POST');
+      const { name } = parseVersionBody(await readBody(req, limits.maxBodyBytes));
+      if (storage.versionCount(found.roomId) >= MAX_VERSIONS_PER_ROOM) throw new HttpError(409, `this room already keeps ${MAX_VERSIONS_PER_ROOM} named versions`);
+      const info = storage.addVersion(found.roomId, name, rooms.currentState(found.roomId));
+      log.info('version saved', { key: keyTag(route.key), id: info.id, bytes: info.bytes });
+      sendJson(res, 201, info);
       return;
     }
   }

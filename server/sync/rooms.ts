@@ -3,9 +3,11 @@
  * for what each connection may do. A room loads from storage on its first connection and unloads
  * (after a final compaction) when its last connection leaves.
  *
- * Order for an update from an edit connection: validate (protocol.ts) -> size check -> append to
- * SQLite (committed) -> Y.applyUpdate -> the doc's 'update' event broadcasts to the other connections.
- * So nobody receives an update that is not on disk.
+ * Order for an update from an edit connection: validate (protocol.ts) -> size check -> queue; the
+ * queue of a room is flushed once per turn of the event loop (setImmediate): every queued update is
+ * appended to SQLite in one transaction (one commit, so one sync to disk for the whole batch), then
+ * each is applied with Y.applyUpdate, whose 'update' event broadcasts it to the other connections.
+ * So nobody receives an update that is not on disk, and a burst from many people costs one commit.
  */
 import * as Y from 'yjs';
 import * as awarenessProtocol from 'y-protocols/awareness';
@@ -63,6 +65,10 @@ export interface Room {
   /** updates appended since the last compaction */
   pendingUpdates: number;
   lastCompactedAt: number;
+  /** updates received and checked, waiting for the next commit */
+  queue: { conn: Connection; update: Uint8Array }[];
+  queuedBytes: number;
+  flushScheduled: boolean;
 }
 
 export interface RoomStats {
@@ -71,12 +77,14 @@ export interface RoomStats {
   updatesStored: number;
   viewUpdatesDropped: number;
   compactions: number;
+  /** storage commits of queued updates (each holds one or more updates) */
+  commits: number;
 }
 
 export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log: Logger }) {
   const { storage, limits, log } = deps;
   const rooms = new Map<string, Room>();
-  const stats: RoomStats = { roomsLoaded: 0, connections: 0, updatesStored: 0, viewUpdatesDropped: 0, compactions: 0 };
+  const stats: RoomStats = { roomsLoaded: 0, connections: 0, updatesStored: 0, viewUpdatesDropped: 0, compactions: 0, commits: 0 };
   const roomTag = (id: string) => id.slice(0, 8);
 
   function send(conn: Connection, frame: Uint8Array): void {
@@ -133,6 +141,9 @@ export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log
       lastSeq: stored.updates.length ? stored.updates[stored.updates.length - 1].seq : 0,
       pendingUpdates: stored.updates.length,
       lastCompactedAt: Date.now(),
+      queue: [],
+      queuedBytes: 0,
+      flushScheduled: false,
     };
     doc.on('update', (update: Uint8Array, origin: unknown) => {
       const frame = encodeUpdateMessage(update);
@@ -156,6 +167,7 @@ export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log
   }
 
   function unloadRoom(room: Room): void {
+    flush(room);
     try {
       compact(room, 'unload');
     } catch (err) {
@@ -188,27 +200,48 @@ export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log
 
   function applyDocUpdate(conn: Connection, update: Uint8Array): void {
     const room = conn.room;
-    if (room.storedBytes + update.length > limits.maxDocBytes) {
+    if (room.storedBytes + room.queuedBytes + update.length > limits.maxDocBytes) {
+      flush(room);
       compact(room, 'size check');
       if (room.storedBytes + update.length > limits.maxDocBytes) {
         closeConnection(conn, closeCodes.docTooLarge, 'document size limit reached');
         return;
       }
     }
-    let seq: number;
+    room.queue.push({ conn, update });
+    room.queuedBytes += update.length;
+    if (!room.flushScheduled) {
+      room.flushScheduled = true;
+      setImmediate(() => flush(room));
+    }
+  }
+
+  /** Commits the room's queued updates in one transaction, then applies and broadcasts them in order. */
+  function flush(room: Room): void {
+    room.flushScheduled = false;
+    if (room.queue.length === 0) return;
+    const batch = room.queue;
+    room.queue = [];
+    room.queuedBytes = 0;
+    let seqs: number[];
     try {
-      seq = storage.appendUpdate(room.id, update);
+      seqs = storage.appendUpdates(room.id, batch.map((b) => b.update));
     } catch (err) {
-      log.error('storing update failed', { room: roomTag(room.id), err: String(err) });
-      closeConnection(conn, closeCodes.internalError, 'storage failure');
+      log.error('storing updates failed', { room: roomTag(room.id), updates: batch.length, err: String(err) });
+      for (const c of new Set(batch.map((b) => b.conn))) closeConnection(c, closeCodes.internalError, 'storage failure');
       return;
     }
-    room.lastSeq = seq;
-    room.storedBytes += update.length;
-    room.pendingUpdates++;
-    stats.updatesStored++;
-    Y.applyUpdate(room.doc, update, conn);
-    if (room.pendingUpdates >= limits.compactEveryUpdates) compact(room, 'count');
+    for (let i = 0; i < batch.length; i++) {
+      const { conn, update } = batch[i];
+      room.lastSeq = seqs[i];
+      room.storedBytes += update.length;
+      room.pendingUpdates++;
+      stats.updatesStored++;
+      Y.applyUpdate(room.doc, update, conn);
+      // compaction covers seq <= lastSeq only: the rest of the batch stays stored until it is applied
+      if (room.pendingUpdates >= limits.compactEveryUpdates) compact(room, 'count');
+    }
+    stats.commits++;
   }
 
   function handleFrame(conn: Connection, frame: Uint8Array): void {
@@ -357,7 +390,10 @@ export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log
     },
     /** Compacts every loaded room now (e.g. on shutdown). */
     compactAll(why = 'request'): void {
-      for (const room of rooms.values()) compact(room, why);
+      for (const room of rooms.values()) {
+        flush(room);
+        compact(room, why);
+      }
     },
     /** Closes every connection (1001) and unloads every room. */
     closeAll(): void {
@@ -368,6 +404,24 @@ export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log
         }
         if (rooms.has(room.id)) unloadRoom(room);
       }
+    },
+    /** The room's whole document as one update: from memory when loaded, else rebuilt from storage. */
+    currentState(roomId: string): Uint8Array {
+      const loaded = rooms.get(roomId);
+      if (loaded) return Y.encodeStateAsUpdate(loaded.doc);
+      const stored = storage.loadRoom(roomId);
+      const doc = new Y.Doc({ gc: true });
+      if (stored.snapshot) Y.applyUpdate(doc, stored.snapshot);
+      for (const u of stored.updates) {
+        try {
+          Y.applyUpdate(doc, u.data);
+        } catch {
+          // same rule as loading: an update that does not apply is skipped (and logged there)
+        }
+      }
+      const state = Y.encodeStateAsUpdate(doc);
+      doc.destroy();
+      return state;
     },
     /** The loaded room with this internal id, if any (tests and stats). */
     loadedRoom(id: string): Room | undefined {

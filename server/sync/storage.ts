@@ -5,6 +5,7 @@
  *   room_keys(key_hash, room_id, role, created_at)  SHA-256 of each live key; one edit and one view per room
  *   snapshots(room_id, data, updated_at)            Y.encodeStateAsUpdate of the compacted document
  *   updates(seq, room_id, data, created_at)         updates appended since the snapshot
+ *   versions(id, room_id, name, data, created_at)   named versions: Y.encodeStateAsUpdate at the moment of saving
  *
  * The document of a room is its snapshot followed by its updates in seq order. Compaction replaces
  * the snapshot and deletes the updates it covers in one transaction.
@@ -15,6 +16,13 @@ import Database from 'better-sqlite3';
 import type { Role } from './keys';
 
 export type SyncMode = 'full' | 'normal';
+
+export interface VersionInfo {
+  id: number;
+  name: string;
+  createdAt: number;
+  bytes: number;
+}
 
 export interface StoredRoom {
   snapshot: Uint8Array | null;
@@ -46,6 +54,14 @@ CREATE TABLE IF NOT EXISTS updates (
   created_at INTEGER NOT NULL
 );
 CREATE INDEX IF NOT EXISTS updates_by_room ON updates (room_id, seq);
+CREATE TABLE IF NOT EXISTS versions (
+  id INTEGER PRIMARY KEY AUTOINCREMENT,
+  room_id TEXT NOT NULL REFERENCES rooms(id),
+  name TEXT NOT NULL,
+  data BLOB NOT NULL,
+  created_at INTEGER NOT NULL
+);
+CREATE INDEX IF NOT EXISTS versions_by_room ON versions (room_id, id);
 `;
 
 export function openStorage(file: string, opts: { sync?: SyncMode } = {}) {
@@ -72,6 +88,10 @@ export function openStorage(file: string, opts: { sync?: SyncMode } = {}) {
     ),
     deleteUpdatesUpTo: db.prepare('DELETE FROM updates WHERE room_id = ? AND seq <= ?'),
     countRooms: db.prepare('SELECT count(*) AS n FROM rooms'),
+    insertVersion: db.prepare('INSERT INTO versions (room_id, name, data, created_at) VALUES (?, ?, ?, ?)'),
+    listVersions: db.prepare('SELECT id, name, created_at AS createdAt, length(data) AS bytes FROM versions WHERE room_id = ? ORDER BY id DESC'),
+    countVersions: db.prepare('SELECT count(*) AS n FROM versions WHERE room_id = ?'),
+    versionData: db.prepare('SELECT data FROM versions WHERE room_id = ? AND id = ?'),
   };
 
   const createRoom = db.transaction((r: { roomId: string; editHash: string; viewHash: string; viewKeySealed: Uint8Array }) => {
@@ -85,6 +105,11 @@ export function openStorage(file: string, opts: { sync?: SyncMode } = {}) {
     q.deleteKey.run(roomId, role);
     q.insertKey.run(newHash, roomId, role, Date.now());
     q.setSealed.run(viewKeySealed, roomId);
+  });
+
+  const appendMany = db.transaction((roomId: string, datas: readonly Uint8Array[]) => {
+    const now = Date.now();
+    return datas.map((d) => Number(q.append.run(roomId, d, now).lastInsertRowid));
   });
 
   const writeSnapshot = db.transaction((roomId: string, data: Uint8Array, upToSeq: number) => {
@@ -114,6 +139,10 @@ export function openStorage(file: string, opts: { sync?: SyncMode } = {}) {
     appendUpdate(roomId: string, data: Uint8Array): number {
       return Number(q.append.run(roomId, data, Date.now()).lastInsertRowid);
     },
+    /** Appends several updates in one transaction (one commit, one sync to disk); returns their seqs in order. */
+    appendUpdates(roomId: string, datas: readonly Uint8Array[]): number[] {
+      return appendMany(roomId, datas);
+    },
     loadRoom(roomId: string): StoredRoom {
       const snap = q.snapshot.get(roomId) as { data: Buffer } | undefined;
       const rows = q.updates.all(roomId) as { seq: number; data: Buffer }[];
@@ -125,6 +154,24 @@ export function openStorage(file: string, opts: { sync?: SyncMode } = {}) {
     /** Replaces the snapshot and deletes updates with seq <= upToSeq, in one transaction. */
     writeSnapshot(roomId: string, data: Uint8Array, upToSeq: number): void {
       writeSnapshot(roomId, data, upToSeq);
+    },
+    /** Stores a named version of the room's document; returns its listing row. */
+    addVersion(roomId: string, name: string, data: Uint8Array): VersionInfo {
+      const createdAt = Date.now();
+      const id = Number(q.insertVersion.run(roomId, name, data, createdAt).lastInsertRowid);
+      return { id, name, createdAt, bytes: data.length };
+    },
+    /** The room's named versions, newest first (without their data). */
+    listVersions(roomId: string): VersionInfo[] {
+      return (q.listVersions.all(roomId) as VersionInfo[]).map((r) => ({ id: Number(r.id), name: r.name, createdAt: Number(r.createdAt), bytes: Number(r.bytes) }));
+    },
+    versionCount(roomId: string): number {
+      return (q.countVersions.get(roomId) as { n: number }).n;
+    },
+    /** The stored document of one version of this room, or null (unknown id, or another room's). */
+    versionData(roomId: string, id: number): Uint8Array | null {
+      const row = q.versionData.get(roomId, id) as { data: Buffer } | undefined;
+      return row ? new Uint8Array(row.data) : null;
     },
     roomCount(): number {
       return (q.countRooms.get() as { n: number }).n;
