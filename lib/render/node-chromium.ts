@@ -35,12 +35,13 @@ export async function svgToPng(svg: string, width: number, height: number, densi
 }
 
 /** PDF bytes of a page at a URL, printed with its own @page rules (A4 unless the page says otherwise). */
-export async function urlToPdf(url: string, opts: { format?: 'A4' | 'Letter'; waitForSelector?: string; timeoutMs?: number } = {}): Promise<Buffer> {
+export async function urlToPdf(url: string, opts: { format?: 'A4' | 'Letter'; waitForSelector?: string; timeoutMs?: number; sessionStorage?: Record<string, string> } = {}): Promise<Buffer> {
   const browser = await launchChromium();
   try {
     const page = await browser.newPage();
+    if (opts.sessionStorage) await page.addInitScript((entries: [string, string][]) => { for (const [k, v] of entries) sessionStorage.setItem(k, v); }, Object.entries(opts.sessionStorage));
     await page.goto(url, { waitUntil: 'load', timeout: opts.timeoutMs ?? 120_000 });
-    if (opts.waitForSelector) await page.waitForSelector(opts.waitForSelector, { timeout: opts.timeoutMs ?? 120_000 });
+    if (opts.waitForSelector) await page.waitForSelector(opts.waitForSelector, { timeout: opts.timeoutMs ?? 120_000, state: 'attached' });
     await page.emulateMedia({ media: 'print' });
     return await page.pdf({ format: opts.format ?? 'A4', printBackground: true, preferCSSPageSize: false, margin: { top: '12mm', bottom: '12mm', left: '12mm', right: '12mm' } });
   } finally {
