@@ -195,7 +195,7 @@ export function Sheet({ snapshot, results, glaser, meta }: { snapshot: SectionSn
                 <table className="sheet-table">
                   <thead><tr><th>Layer (warm side first)</th><th>d</th><th>λ</th><th>μ</th><th>sd</th><th>sd from</th></tr></thead>
                   <tbody>
-                    {o.check.layers.map((l, i) => <tr key={i}><td>{l.name}</td><td>{formatLength(l.thickness, u)}</td><td>{l.lambda}</td><td>{l.mu ?? '—'}</td><td>{l.sd.toFixed(3)} m</td><td>{l.sdFrom}</td></tr>)}
+                    {o.check.layers.map((l, i) => <tr key={i}><td>{l.name}</td><td>{formatLength(l.thickness, u)}</td><td>{formatQuantity('conductivity', l.lambda, u)}</td><td>{l.mu ?? '—'}</td><td>{l.sd.toFixed(3)} m</td><td>{l.sdFrom}</td></tr>)}
                   </tbody>
                 </table>
                 <table className="sheet-table">

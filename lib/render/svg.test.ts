@@ -33,11 +33,12 @@ describe('renderSectionSvg', () => {
     expect(out.svg).toContain('Screening aid');
     expect(out.range).toEqual({ lo: -18, hi: 20 });
     // 1:10 at 96 px per inch: a metre is 377.95 px.
-    expect(out.width).toBe(Math.ceil((out.box.maxX - out.box.minX) * (96 / 0.0254) / 10 + 48));
+    expect(out.width).toBe(Math.ceil(Math.max(600, (out.box.maxX - out.box.minX) * (96 / 0.0254) / 10 + 48)));
   });
   it('halves the drawing at 1:20 and leaves the overlay out on request', () => {
-    const a = renderSectionSvg(s, r, { scale: 10 }), b = renderSectionSvg(s, r, { scale: 20, overlay: false });
+    const a = renderSectionSvg(s, r, { scale: 10, overlay: false }), b = renderSectionSvg(s, r, { scale: 20, overlay: false });
     expect(Math.abs((b.width - 48) * 2 - (a.width - 48))).toBeLessThanOrEqual(2);
+    expect(Math.abs((b.height - 82) * 2 - (a.height - 82))).toBeLessThanOrEqual(2);
     expect(b.svg).not.toContain('data-layer="field"');
     expect(b.svg).not.toContain('data-state=');
     expect(b.range).toBeNull();

@@ -142,7 +142,8 @@ export function renderSectionSvg(snapshot: SectionSnapshot, results: SectionResu
   const k = PX_PER_M_AT_1_1 / scale;
   const pad = 24, legendH = overlay ? 78 : 0, footH = 34;
   const dw = (box.maxX - box.minX) * k, dh = (box.maxY - box.minY) * k;
-  const width = Math.ceil(dw + 2 * pad), height = Math.ceil(dh + 2 * pad + legendH + footH);
+  // The legend needs about 560 px whatever the scale.
+  const width = Math.ceil(Math.max(dw + 2 * pad, overlay ? 600 : 0)), height = Math.ceil(dh + 2 * pad + legendH + footH);
   const X = (x: number) => pad + (x - box.minX) * k;
   const Y = (y: number) => pad + (box.maxY - y) * k;
   const pathOf = (poly: readonly Point[]) => `M${poly.map(([x, y]) => `${n2(X(x))} ${n2(Y(y))}`).join('L')}Z`;
@@ -247,7 +248,7 @@ export function renderSectionSvg(snapshot: SectionSnapshot, results: SectionResu
   parts.push(`<rect x="${pad}" y="${pad}" width="${n2(dw)}" height="${n2(dh)}" fill="none" stroke="#888" stroke-width="0.6"/>`);
   let y = pad + dh + 14;
   if (overlay && range && results) {
-    const lw = Math.min(320, Math.max(160, dw - 20));
+    const lw = 240;
     const stops = Array.from({ length: 11 }, (_, i) => `<stop offset="${i / 10}" stop-color="${temperatureColour(range!.lo + (i / 10) * (range!.hi - range!.lo), range!.lo, range!.hi)}"/>`).join('');
     parts.push(`<defs><linearGradient id="dl-scale">${stops}</linearGradient></defs>`);
     parts.push(`<g data-layer="legend"><text x="${pad}" y="${y}">Temperature, design day (surface-temperature run)</text>`);
