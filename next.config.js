@@ -3,7 +3,7 @@ const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
   // lib/ is plain TypeScript shared with Node; keep Node-only modules out of client bundles.
-  serverExternalPackages: ['better-sqlite3', 'ws'],
+  serverExternalPackages: ['better-sqlite3', 'ws', 'playwright-core'],
 };
 
 export default nextConfig;

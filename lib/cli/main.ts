@@ -5,6 +5,7 @@
  *   dewline check FILE           validate and summarise
  *   dewline solve FILE [--json] [--mesh preview|default|fine]
  *   dewline validate [--write FILE]
+ *   dewline render FILE --svg|--png [--out F] [--scale N] [--no-overlay]
  */
 import { TEMPLATES, templateByName } from '../section/templates';
 import { checkCommand } from './check';
@@ -18,6 +19,8 @@ export const USAGE = `usage: dewline COMMAND
   solve FILE [--json] [--mesh preview|default|fine]
                             solve a section: heat flows, psi, coldest surfaces, verdict
   validate [--write FILE]   run the published validation cases
+  render FILE --svg|--png [--out F] [--scale N] [--no-overlay] [--units si|ip]
+                            draw the section (scale 1:N, default 10) as SVG or PNG
 Exit status: 0 success, 2 bad input, 1 internal error.`;
 
 type Command = (args: string[], io: CliIO) => number | Promise<number>;
@@ -47,6 +50,10 @@ const COMMANDS: Record<string, Command> = {
       return EXIT.internal;
     }
     return mod.solveCommand(args, io);
+  },
+  async render(args, io) {
+    const { renderCommand } = await import('./render');
+    return renderCommand(args, io);
   },
   async validate(args, io) {
     const mod = (await import(/* @vite-ignore */ './validate' + '').catch(() => null)) as { validateCommand?: Command } | null;

@@ -6,7 +6,7 @@ const io = {
   out: (s: string) => process.stdout.write(s.endsWith('\n') ? s : s + '\n'),
   err: (s: string) => process.stderr.write(s.endsWith('\n') ? s : s + '\n'),
   readFile: (p: string) => fs.readFileSync(p, 'utf8'),
-  writeFile: (p: string, text: string) => fs.writeFileSync(p, text),
+  writeFile: (p: string, data: string | Uint8Array) => fs.writeFileSync(p, data),
 };
 
 runCli(process.argv.slice(2), io).then(
