@@ -216,3 +216,18 @@ test('a shared room: the sheet loads the room document once over /sync/<key>', a
   await page.goto('/sheet?key=AAAAAAAAAAAAAAAAAAAAAA');
   await expect(page.getByTestId('sheet-error')).toHaveText('The room could not be loaded', { timeout: 60_000 });
 });
+
+test('the section page links to the sheet of the document as edited', async ({ page, context }) => {
+  await page.goto('/section?template=slab-edge-break');
+  await page.waitForFunction(() => !!(window as unknown as { __dewline?: { controller?: unknown } }).__dewline?.controller, null, { timeout: 240_000 });
+  // Edit through the board's named operation, then open the sheet from the page's link.
+  const err = await page.evaluate(() => (window as unknown as { __dewline: { controller: { updatePart(id: string, p: Record<string, unknown>): string | null } } }).__dewline.controller.updatePart('edge', { thickness: 0.04 }));
+  expect(err).toBeNull();
+  const edited = await page.evaluate(() => (window as unknown as { __dewline: { snapshot(): unknown } }).__dewline.snapshot()) as SectionSnapshot;
+  expect((edited.parts.find((p) => p.id === 'edge') as Record<string, unknown>).thickness).toBe(0.04);
+  const [sheet] = await Promise.all([context.waitForEvent('page'), page.getByTestId('sheet-link').click()]);
+  await sheet.waitForSelector('[data-ready="yes"]', { timeout: 240_000, state: 'attached' });
+  const snap = await sheet.evaluate(() => (window as unknown as W).__dewlineSheet.snapshot);
+  expect(snap).toEqual(edited);
+  await compareWithSolver(sheet, snap);
+});
