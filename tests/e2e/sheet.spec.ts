@@ -86,9 +86,12 @@ test('the sheet equals the solver on the slab-edge template and carries the caut
   await expect(page.locator('.sheet-glaser[data-cut="edge-cut"] [data-testid="glaser-problem"]')).toContainText('ends inside');
   await expect(page.locator('.sheet-glaser[data-saved="no"] svg[data-chart="glaser"]')).toHaveCount(1);
   await page.screenshot({ path: `${out}/slab-sheet.png`, fullPage: true });
-  // Print media hides the tool bar.
+  // Print media hides the tool bar, and the drawing is not shrunk on an A4-wide page (so 1:N holds on paper).
   await page.emulateMedia({ media: 'print' });
   await expect(page.getByTestId('sheet-tools')).toBeHidden();
+  await page.setViewportSize({ width: Math.round((186 / 25.4) * 96), height: 1000 });
+  const sizes = await drawing.locator('svg').first().evaluate((el) => ({ attr: Number(el.getAttribute('width')), shown: el.getBoundingClientRect().width }));
+  expect(Math.abs(sizes.shown - sizes.attr)).toBeLessThan(0.5);
   await page.emulateMedia({ media: 'screen' });
 });
 
