@@ -116,6 +116,14 @@ test('SVG, PNG and PDF downloads from the sheet', async ({ page }) => {
   const [, w, h] = /width="(\d+)" height="(\d+)"/.exec(text)!;
   expect(png.bytes.readUInt32BE(16)).toBe(Number(w));
   expect(png.bytes.readUInt32BE(20)).toBe(Number(h));
+  // At a chosen scale: 1:5 is twice the size of 1:10 (drawing area; the 24 px padding stays).
+  await page.getByTestId('picture-scale').selectOption('10');
+  const s10 = (await save('download-svg-plain')).bytes.toString('utf8');
+  await page.getByTestId('picture-scale').selectOption('5');
+  const s5 = (await save('download-svg-plain')).bytes.toString('utf8');
+  const wOf = (x: string) => Number(/width="(\d+)"/.exec(x)![1]);
+  expect(Math.abs((wOf(s5) - 48) - 2 * (wOf(s10) - 48))).toBeLessThanOrEqual(2);
+  expect(s5).toContain('scale 1:5');
   const pdf = await save('download-pdf');
   expect(pdf.bytes.subarray(0, 5).toString('latin1')).toBe('%PDF-');
 });
@@ -127,8 +135,16 @@ function pdfFacts(file: string) {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'dewline-pdf-'));
   execFileSync('pdftoppm', ['-r', '40', '-png', file, path.join(dir, 'page')]);
   const rendered = fs.readdirSync(dir).filter((f) => f.endsWith('.png'));
+  // Page 1 as a grey map (binary PGM: header, then one byte per pixel) to see that it is not blank.
+  execFileSync('pdftoppm', ['-r', '40', '-gray', '-f', '1', '-l', '1', '-singlefile', file, path.join(dir, 'first')]);
+  const pgm = fs.readFileSync(path.join(dir, 'first.pgm'));
+  const header = /^P5\s+(\d+)\s+(\d+)\s+255\s/.exec(pgm.subarray(0, 40).toString('latin1'))!;
+  const px = pgm.subarray(header[0].length);
+  let dark = 0;
+  for (const v of px) if (v < 250) dark++;
+  const inked = dark / px.length;
   const text = execFileSync('pdftotext', [file, '-'], { encoding: 'utf8' });
-  return { pages, width: Number(pw), height: Number(ph), rendered: rendered.map((f) => path.join(dir, f)), text };
+  return { pages, width: Number(pw), height: Number(ph), rendered: rendered.map((f) => path.join(dir, f)), text, inked };
 }
 
 test('the server makes the PDF with chromium: pages render, text reads, A4 and Letter', async ({ request }) => {
@@ -146,6 +162,9 @@ test('the server makes the PDF with chromium: pages render, text reads, A4 and L
   expect(a4.pages).toBeLessThanOrEqual(10);
   expect(a4.rendered.length).toBe(a4.pages);
   for (const p of a4.rendered) expect(fs.statSync(p).size).toBeGreaterThan(2000);
+  // The first page carries the drawing and its colour field: a blank page would have no pixel below 250 of 255
+  // (measured here: 19.3 % of pixels on page 1 of basement-outside).
+  expect(a4.inked).toBeGreaterThan(0.05);
   const tpl = templateByName('basement-outside')!.build();
   const ref = solveSectionSync(tpl, { mesh: 'default' });
   const flat = a4.text.replace(/\s+/g, ' ');
@@ -164,7 +183,7 @@ test('the server makes the PDF with chromium: pages render, text reads, A4 and L
   // US Letter is 8.5 x 11 in = 612 x 792 pt (same allowance as A4).
   expect(Math.abs(lt.width - 612)).toBeLessThan(1.5);
   expect(Math.abs(lt.height - 792)).toBeLessThan(1.5);
-  console.log(`PDF page sizes: A4 ${a4.width} x ${a4.height} pt, ${a4.pages} pages; Letter ${lt.width} x ${lt.height} pt, ${lt.pages} pages`);
+  console.log(`PDF page sizes: A4 ${a4.width} x ${a4.height} pt, ${a4.pages} pages, page 1 ${(a4.inked * 100).toFixed(1)} % of pixels not white; Letter ${lt.width} x ${lt.height} pt, ${lt.pages} pages`);
   expect(lt.rendered.length).toBe(lt.pages);
 
   // Bad input is refused where it enters.
