@@ -84,6 +84,7 @@ test('two people on one edit link: edits, presence, pointer, selection and per-p
   // and their selection, outlined
   await a.evaluate(() => (window as any).__dewline.select(['slab']));
   await expect(b.getByTestId('peer-selection-slab')).toBeVisible({ timeout: 5_000 });
+  await b.screenshot({ path: 'test-results/rooms/other-persons-pointer.png' });
 
   // per-person undo: B's own edit survives A's undo
   expect(await b.evaluate(() => (window as any).__dewline.controller.updatePart('stem', { thickness: 0.25 }))).toBeNull();
@@ -146,6 +147,7 @@ test('replacing a link revokes the old one, and the page says so', async ({ brow
   await b.goto(editUrl);
   await ready(b);
 
+  await v.screenshot({ path: 'test-results/rooms/view-link.png' });
   await a.getByTestId('rotate-view').click();
   await a.getByTestId('rotate-view-confirm').click();
   await expect(v.getByTestId('revoked')).toContainText('Link revoked', { timeout: 10_000 });
@@ -240,4 +242,26 @@ test('edits made offline sync when the connection returns', async ({ browser }) 
   await expect(a.getByTestId('connection')).toHaveAttribute('data-status', 'live', { timeout: 30_000 });
   await expect.poll(() => thickness(b, 'edge'), { timeout: 10_000 }).toBe(0.015);
   await expect.poll(() => thickness(a, 'stem'), { timeout: 10_000 }).toBe(0.3);
+});
+
+test('an edit made offline survives closing the page and reaches the room from the next page in that browser', async ({ browser }) => {
+  const a = await person(browser);
+  const { editUrl } = await newRoom(a);
+  const b = await person(browser);
+  await b.goto(editUrl);
+  await ready(b);
+  const ctx = a.context();
+  await ctx.setOffline(true);
+  await expect(a.getByTestId('connection')).toHaveAttribute('data-status', 'offline', { timeout: 10_000 });
+  expect(await a.evaluate(() => (window as any).__dewline.controller.updatePart('edge', { thickness: 0.012 }))).toBeNull();
+  // give y-indexeddb its moment to write, then close the page while still offline
+  await a.waitForTimeout(500);
+  await a.close();
+  await ctx.setOffline(false);
+  await b.waitForTimeout(1_000);
+  expect(await thickness(b, 'edge')).toBe(0.025);
+  const a2 = await ctx.newPage();
+  await a2.goto(editUrl);
+  await ready(a2);
+  await expect.poll(() => thickness(b, 'edge'), { timeout: 10_000 }).toBe(0.012);
 });
