@@ -335,3 +335,39 @@ test('both people keep their edits when the server is killed and restarted', asy
     server.kill('SIGTERM');
   }
 });
+
+test('a section file and a blank board each open into a new room; a bad file makes no room', async ({ browser }) => {
+  const a = await person(browser);
+  const s = templateByName('crawlspace-unvented')!.build();
+  s.name = 'Hollow Oak crawl space';
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'dewline-e2e-'));
+  const file = path.join(dir, 'crawl.json');
+  fs.writeFileSync(file, JSON.stringify(s));
+  await a.goto('/');
+  await a.getByTestId('start-shared').check();
+  await a.getByTestId('open-file').setInputFiles(file);
+  await a.waitForURL(/\/s\/[A-Za-z0-9_-]{22}$/);
+  await ready(a);
+  expect((await snap(a)).name).toBe('Hollow Oak crawl space');
+  expect((await snap(a)).parts.length).toBe(s.parts.length);
+  // a reload does not write the file a second time over later edits
+  expect(await a.evaluate(() => (window as any).__dewline.controller.updatePart((window as any).__dewline.snapshot().parts[0].id, { name: 'Edited after start' }))).toBeNull();
+  await a.reload();
+  await ready(a);
+  expect((await snap(a)).parts[0]).toMatchObject({ name: 'Edited after start' });
+
+  const broken = JSON.parse(JSON.stringify(s));
+  broken.parts[0].kind = 'no-such-kind';
+  const bad = path.join(dir, 'bad.json');
+  fs.writeFileSync(bad, JSON.stringify(broken));
+  await a.goto('/');
+  await a.getByTestId('start-shared').check();
+  await a.getByTestId('open-file').setInputFiles(bad);
+  await expect(a.getByTestId('open-problems')).toContainText('bad.json: parts[0]');
+  expect(new URL(a.url()).pathname).toBe('/');
+
+  await a.getByTestId('start-blank').click();
+  await a.waitForURL(/\/s\/[A-Za-z0-9_-]{22}$/);
+  await ready(a);
+  expect((await snap(a)).parts).toEqual([]);
+});
