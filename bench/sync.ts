@@ -182,9 +182,11 @@ async function workerMain(): Promise<void> {
   while (received < expected && performance.now() - tail < 5_000) await sleep(20);
   measuring = false;
   const cpu = process.cpuUsage();
-  process.send!({ type: 'done', received, expected, latencies: Array.from(latencies.subarray(0, received)), cpuMs: (cpu.user + cpu.system) / 1000 });
   for (const p of providers) p.destroy();
-  await sleep(200);
+  // leave only when the parent has the report (it says 'bye'), so 'exit' never overtakes the report
+  const bye = new Promise((resolve) => process.once('message', resolve));
+  process.send!({ type: 'done', received, expected, latencies: Array.from(latencies.subarray(0, received)), cpuMs: (cpu.user + cpu.system) / 1000 });
+  await bye;
   process.exit(0);
 }
 
@@ -228,10 +230,15 @@ async function run(n: number, procs: number, base: string, wsBase: string, pid: 
     child.send(job);
     return child;
   });
-  const next = (child: ChildProcess) => new Promise<Record<string, unknown>>((resolve, reject) => {
-    child.once('message', (m) => resolve(m as Record<string, unknown>));
-    child.once('exit', (code) => reject(new Error(`bench worker exited (${code})`)));
-  });
+  const next = (child: ChildProcess) =>
+    new Promise<Record<string, unknown>>((resolve, reject) => {
+      const onExit = (code: number | null) => reject(new Error(`bench worker exited (${code}) before reporting`));
+      child.once('exit', onExit);
+      child.once('message', (m) => {
+        child.off('exit', onExit);
+        resolve(m as Record<string, unknown>);
+      });
+    });
   await Promise.all(children.map(next));
   await sleep(300);
   const cpu0 = cpuMs(pid);
@@ -241,6 +248,7 @@ async function run(n: number, procs: number, base: string, wsBase: string, pid: 
   const done = Promise.all(children.map(next));
   for (const c of children) c.send({ startAt });
   const reports = (await done) as unknown as { received: number; expected: number; latencies: number[]; cpuMs: number }[];
+  for (const c of children) c.send({ type: 'bye' });
   obsOn = false;
   obs.destroy();
   obsDoc.destroy();
