@@ -145,13 +145,13 @@ async function workerMain(): Promise<void> {
     const provider = joinRoom(doc, job.editKey, { syncUrl: job.wsBase, WebSocketPolyfill: WebSocket as unknown as typeof globalThis.WebSocket });
     docs.push(doc);
     providers.push(provider);
-    const me = `c${i}`;
-    // every edit writes its stamp [sender, seq, sentAt] into 'bench' in the same transaction as the part change
+    const me = `c${i}:`;
+    // every edit writes its stamp [sender, seq, sentAt] under its own key 'c<sender>:<seq>' in 'bench', in the same transaction as the part change
     doc.getMap<readonly [number, number, number]>('bench').observe((ev) => {
       if (!measuring || ev.transaction.local) return;
       const now = nowAbs();
       for (const key of ev.keysChanged) {
-        if (key === me) continue;
+        if (key.startsWith(me)) continue;
         const stamp = ev.target.get(key);
         if (!stamp || received >= expected) continue;
         latencies[received++] = now - stamp[2];
@@ -173,7 +173,8 @@ async function workerMain(): Promise<void> {
         const part = doc.getMap<Y.Map<unknown>>('parts').get(job.partIds[(i + seq) % job.partIds.length])!;
         doc.transact(() => {
           part.set('x', Math.round(((i * 7 + seq) % 50) * 10) / 1000);
-          doc.getMap('bench').set(`c${i}`, [i, seq, nowAbs()] as const);
+          // a key per edit: the server may merge several edits into one message, and each must be seen
+          doc.getMap('bench').set(`c${i}:${seq}`, [i, seq, nowAbs()] as const);
         });
       }
     }),
