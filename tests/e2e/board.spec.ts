@@ -144,7 +144,7 @@ test('edit a template: type a thickness, drag the wall, draw a polygon, undo twi
   await shot(page, info, '4-reopened');
 });
 
-test('multi-select with shift and a box, then delete; undo brings them back', async ({ page }, info) => {
+test('multi-select with shift-click and with a box, then delete; undo brings them back', async ({ page }, info) => {
   await openTemplate(page);
   const n0 = (await snapshot(page)).parts.length;
   await page.mouse.click(...Object.values(await centreOf(page, 'footing')) as [number, number]);
@@ -161,6 +161,17 @@ test('multi-select with shift and a box, then delete; undo brings them back', as
   await page.keyboard.press('Control+z');
   expect((await snapshot(page)).parts.length).toBe(n0);
 
+  // A box dragged from empty space (above the model) selects every part entirely inside it.
+  const from: [number, number] = [-0.05, 1.7], to: [number, number] = [0.3, -0.15];
+  const a = await client(page, ...from), b = await client(page, ...to);
+  await drag(page, a, b.x - a.x, b.y - a.y, 10);
+  const r = { minX: from[0], maxX: to[0], minY: to[1], maxY: from[1] };
+  const inside = [...resolveSection((await snapshot(page)) as never).parts.values()].filter((p) => p.box.minX >= r.minX && p.box.maxX <= r.maxX && p.box.minY >= r.minY && p.box.maxY <= r.maxY).map((p) => p.id).sort();
+  expect(inside).toEqual(['edge', 'plate', 'wall']);
+  await expect.poll(() => dew(page, (d) => [...d.selection().parts].sort())).toEqual(inside);
+  await shot(page, info, 'box-selected');
+  await page.keyboard.press('Delete');
+  expect((await snapshot(page)).parts.length).toBe(n0 - 3);
 });
 
 test('a locked part cannot be dragged; unlocked it can', async ({ page }, info) => {
