@@ -145,13 +145,13 @@ async function workerMain(): Promise<void> {
     const provider = joinRoom(doc, job.editKey, { syncUrl: job.wsBase, WebSocketPolyfill: WebSocket as unknown as typeof globalThis.WebSocket });
     docs.push(doc);
     providers.push(provider);
-    const me = `c${i}`;
-    // every edit writes its stamp [sender, seq, sentAt] into 'bench' in the same transaction as the part change
+    const me = `c${i}:`;
+    // every edit writes its stamp [sender, seq, sentAt] under its own key 'c<sender>:<seq>' in 'bench', in the same transaction as the part change
     doc.getMap<readonly [number, number, number]>('bench').observe((ev) => {
       if (!measuring || ev.transaction.local) return;
       const now = nowAbs();
       for (const key of ev.keysChanged) {
-        if (key === me) continue;
+        if (key.startsWith(me)) continue;
         const stamp = ev.target.get(key);
         if (!stamp || received >= expected) continue;
         latencies[received++] = now - stamp[2];
@@ -173,7 +173,8 @@ async function workerMain(): Promise<void> {
         const part = doc.getMap<Y.Map<unknown>>('parts').get(job.partIds[(i + seq) % job.partIds.length])!;
         doc.transact(() => {
           part.set('x', Math.round(((i * 7 + seq) % 50) * 10) / 1000);
-          doc.getMap('bench').set(`c${i}`, [i, seq, nowAbs()] as const);
+          // a key per edit: the server may merge several edits into one message, and each must be seen
+          doc.getMap('bench').set(`c${i}:${seq}`, [i, seq, nowAbs()] as const);
         });
       }
     }),
@@ -182,9 +183,11 @@ async function workerMain(): Promise<void> {
   while (received < expected && performance.now() - tail < 5_000) await sleep(20);
   measuring = false;
   const cpu = process.cpuUsage();
-  process.send!({ type: 'done', received, expected, latencies: Array.from(latencies.subarray(0, received)), cpuMs: (cpu.user + cpu.system) / 1000 });
   for (const p of providers) p.destroy();
-  await sleep(200);
+  // leave only when the parent has the report (it says 'bye'), so 'exit' never overtakes the report
+  const bye = new Promise((resolve) => process.once('message', resolve));
+  process.send!({ type: 'done', received, expected, latencies: Array.from(latencies.subarray(0, received)), cpuMs: (cpu.user + cpu.system) / 1000 });
+  await bye;
   process.exit(0);
 }
 
@@ -228,10 +231,15 @@ async function run(n: number, procs: number, base: string, wsBase: string, pid: 
     child.send(job);
     return child;
   });
-  const next = (child: ChildProcess) => new Promise<Record<string, unknown>>((resolve, reject) => {
-    child.once('message', (m) => resolve(m as Record<string, unknown>));
-    child.once('exit', (code) => reject(new Error(`bench worker exited (${code})`)));
-  });
+  const next = (child: ChildProcess) =>
+    new Promise<Record<string, unknown>>((resolve, reject) => {
+      const onExit = (code: number | null) => reject(new Error(`bench worker exited (${code}) before reporting`));
+      child.once('exit', onExit);
+      child.once('message', (m) => {
+        child.off('exit', onExit);
+        resolve(m as Record<string, unknown>);
+      });
+    });
   await Promise.all(children.map(next));
   await sleep(300);
   const cpu0 = cpuMs(pid);
@@ -241,6 +249,7 @@ async function run(n: number, procs: number, base: string, wsBase: string, pid: 
   const done = Promise.all(children.map(next));
   for (const c of children) c.send({ startAt });
   const reports = (await done) as unknown as { received: number; expected: number; latencies: number[]; cpuMs: number }[];
+  for (const c of children) c.send({ type: 'bye' });
   obsOn = false;
   obs.destroy();
   obsDoc.destroy();

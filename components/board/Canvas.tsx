@@ -12,7 +12,7 @@ import type { FillPattern } from '@/lib/materials/material';
 import { lookupMaterial } from '@/lib/section/resolve';
 import { partKind } from '@/lib/section/registry';
 import { formatLength, formatQuantity } from '@/lib/units';
-import type { BoardController, PointerInput } from './controller';
+import type { BoardController, PointerInput, SectionState } from './controller';
 import { fillStyle, fillTile, TILE_RES, ZONE_STYLES } from './fills';
 import { boxOf } from './hit';
 import { useStore } from './store';
@@ -116,18 +116,25 @@ function PartsLayers() {
   );
 }
 
+/** Zones: redrawn only when a zone's outline or kind changes (not on every move of a part). */
 function ZonesLayer() {
   const c = useBoard();
   const st = useStore(c.section);
+  const key = st.resolved.zones.map((z) => `${z.zoneId}:${z.kind}:${z.polygon.join(';')}`).join('|');
+  const zones = useMemo(() => st.resolved.zones, [key]); // eslint-disable-line react-hooks/exhaustive-deps
+  return <ZoneShapes zones={zones} />;
+}
+
+const ZoneShapes = memo(function ZoneShapes({ zones }: { zones: SectionState['resolved']['zones'] }) {
   return (
     <WorldLayer>
-      {st.resolved.zones.map((z) => {
+      {zones.map((z) => {
         const zs = ZONE_STYLES[z.kind] ?? ZONE_STYLES.fixed;
         return <Line key={z.zoneId} points={z.polygon.flatMap(([x, y]) => [x, y])} closed fill={zs.fill} stroke={zs.edge} strokeWidth={1} dash={[6, 4]} strokeScaleEnabled={false} listening={false} perfectDrawEnabled={false} />;
       })}
     </WorldLayer>
   );
-}
+});
 
 /** Grid lines in screen space, faint over the drawing; minor lines at round mm or inch steps. */
 function GridLayer() {

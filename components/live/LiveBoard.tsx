@@ -12,8 +12,8 @@ import { LiveSession } from './session';
 const Board = dynamic(() => import('@/components/board/Board'), { ssr: false, loading: () => <p style={{ padding: 24 }}>Loading the board…</p> });
 
 export default function LiveBoard({ doc, origin, readOnly, onReady }: { doc: Y.Doc; origin: object; readOnly?: boolean; onReady?: (c: BoardController) => void }) {
-  const live = useMemo(() => new LiveSession(), []);
   const options = useMemo(() => createLiveOptions(), []);
+  const live = useMemo(() => new LiveSession(options), [options]);
   useEffect(() => () => live.detach(), [live]);
   return (
     <Board doc={doc} origin={origin} readOnly={readOnly}

@@ -39,7 +39,12 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
     imgRef.current?.getLayer()?.batchDraw();
   }, [canvas, st.field, range, v, size, opt.colours]);
 
-  const lines = useMemo(() => (st.field && range && opt.isotherms ? isotherms(st.field, levels(range, opt.step)) : []), [st.field, range, opt.isotherms, opt.step]);
+  // The worker traces the isotherms with each solve; only a change of interval is traced here, once.
+  const lines = useMemo(() => {
+    if (!st.field || !range || !opt.isotherms) return [];
+    if (st.iso && st.iso.step === opt.step) return st.iso.lines;
+    return isotherms(st.field, levels(range, opt.step));
+  }, [st.field, st.iso, range, opt.isotherms, opt.step]);
   const marks = useMemo(() => (st.field && opt.flow ? flowMarks(st.field, Math.max(3, Math.round(Math.sqrt((st.field.nx * st.field.ny) / 900)))) : []), [st.field, opt.flow]);
   if (!st.results || !st.field) return null;
   const r = st.results;

@@ -9,6 +9,8 @@ import { createStore } from '@/components/board/store';
 import type { SectionSnapshot } from '@/lib/section/schema';
 import type { SectionResults } from '@/lib/thermal/types';
 import type { GridField } from './colour';
+import type { Isotherm } from './contours';
+import type { LiveOptions } from './options';
 import type { FromWorker, ToWorker } from './protocol';
 import type { Effect, Mesh } from './scheduler';
 import { Scheduler } from './scheduler';
@@ -18,7 +20,7 @@ export interface LiveState {
   field: GridField | null;
   /** Section version the shown results belong to. */
   version: number;
-  /** Version of the drawing now. */
+  /** Version of the drawing when the results last turned stale or fresh. */
   drawn: number;
   stale: boolean;
   busy: { mesh: Mesh; elapsedMs: number } | null;
@@ -29,6 +31,8 @@ export interface LiveState {
   stopped: boolean;
   /** Mesh level of the shown results. */
   mesh: Mesh | null;
+  /** Isotherms traced by the worker for the shown results, at `step` K. */
+  iso: { step: number; lines: Isotherm[] } | null;
 }
 
 export interface Baseline { results: SectionResults; snapshot: SectionSnapshot }
@@ -45,8 +49,9 @@ export class LiveSession {
   private snapshots = new Map<number, SectionSnapshot>();
   private off: (() => void)[] = [];
 
-  constructor() {
-    this.state = createStore<LiveState>({ results: null, field: null, version: -1, drawn: 0, stale: true, busy: null, error: null, refreshes: 0, lastMs: 0, stopped: false, mesh: null });
+  /** `options` (optional): the viewer's isotherm interval is traced in the worker with each solve. */
+  constructor(private readonly options: LiveOptions | null = null) {
+    this.state = createStore<LiveState>({ results: null, field: null, version: -1, drawn: 0, stale: true, busy: null, error: null, refreshes: 0, lastMs: 0, stopped: false, mesh: null, iso: null });
   }
 
   attach(c: BoardController) {
@@ -77,7 +82,9 @@ export class LiveSession {
   private schedule() {
     const c = this.controller;
     if (!c) return;
-    this.patch({ drawn: c.section.get().version, stale: this.state.get().version !== c.section.get().version });
+    // Patch only when staleness flips: a drag changes the drawing on every frame, and the readout need not re-render for it.
+    const drawn = c.section.get().version, stale = this.state.get().version !== drawn;
+    if (stale !== this.state.get().stale) this.patch({ drawn, stale });
     if (this.raf) return;
     this.raf = requestAnimationFrame(() => {
       this.raf = 0;
@@ -112,7 +119,8 @@ export class LiveSession {
     for (const e of effects) {
       if (e.type === 'cancel') this.post({ type: 'cancel', id: e.id });
       else {
-        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh });
+        const o = this.options?.get();
+        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null });
         this.patch({ busy: { mesh: e.req.mesh, elapsedMs: 0 } });
       }
     }
@@ -135,8 +143,8 @@ export class LiveSession {
       const field: GridField = { xs: m.results.field.xs, ys: m.results.field.ys, nx: m.results.field.xs.length - 1, ny: m.results.field.ys.length - 1, t: m.field };
       const drawn = this.controller?.section.get().version ?? version;
       const prev = this.state.get();
-      this.patch({ results: m.results, field, version, stale: version !== drawn, mesh: req?.mesh ?? null, error: null, refreshes: prev.refreshes + 1, lastMs: m.ms });
-      expose(this, m.results, req?.mesh ?? null, version);
+      this.patch({ results: m.results, field, version, stale: version !== drawn, mesh: req?.mesh ?? null, error: null, refreshes: prev.refreshes + 1, lastMs: m.ms, iso: m.iso ?? null });
+      expose(this, m.results, req?.mesh ?? null, version, m.ms);
     } else if (m.type === 'error' && req) this.patch({ error: m.message });
     this.apply(this.sched.done(m.id));
     // A preview that finished after the release, or anything missed: make sure the drawing gets its default solve.
@@ -150,10 +158,10 @@ export class LiveSession {
   }
 }
 
-function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, version: number) {
+function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, version: number, ms: number) {
   if (typeof window === 'undefined') return;
   const w = window as unknown as { __dewline?: Record<string, unknown> };
   w.__dewline ??= {};
   w.__dewline.results = results;
-  w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), snapshot: s.controller?.snapshot() };
+  w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), ms, cells: results.mesh.cells, snapshot: s.controller?.snapshot() };
 }

@@ -7,6 +7,8 @@ import { solveSection } from '@/lib/thermal/section';
 import type { SectionResults } from '@/lib/thermal/types';
 import type { SectionSnapshot } from '@/lib/section/schema';
 import type { FromWorker, ToWorker } from './protocol';
+import { levels, rangeOf } from './colour';
+import { isotherms } from './contours';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 let current: { id: number; token: { aborted: boolean } } | null = null;
@@ -20,11 +22,11 @@ scope.onmessage = (e: MessageEvent<ToWorker>) => {
   }
   if (m.type === 'solve') {
     if (current) current.token.aborted = true;
-    void run(m.id, m.snapshot as SectionSnapshot, m.mesh);
+    void run(m.id, m.snapshot as SectionSnapshot, m.mesh, m.isoStep ?? null);
   }
 };
 
-async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'default' | 'fine') {
+async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'default' | 'fine', isoStep: number | null) {
   const token = { aborted: false };
   current = { id, token };
   const t0 = performance.now();
@@ -37,7 +39,13 @@ async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'def
     const t = new Float64Array(results.field.t.length);
     for (let k = 0; k < t.length; k++) { const v = results.field.t[k]; t[k] = v === null ? NaN : v; }
     const lean: SectionResults = { ...results, field: { xs: results.field.xs, ys: results.field.ys, t: [] } };
-    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0 }, [t.buffer]);
+    // Isotherms are traced here (about 0.1 s on a 15 000-cell field), off the page's main thread.
+    let iso: { step: number; lines: ReturnType<typeof isotherms> } | null = null;
+    if (isoStep && isoStep > 0) {
+      const range = rangeOf(results.zones.filter((z) => z.touches).map((z) => z.design.t));
+      iso = { step: isoStep, lines: isotherms({ xs: results.field.xs, ys: results.field.ys, nx: results.field.xs.length - 1, ny: results.field.ys.length - 1, t }, levels(range, isoStep)) };
+    }
+    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso }, [t.buffer]);
   } catch (err) {
     const e = err as Error;
     if (e?.name === 'AbortError') post({ type: 'cancelled', id });

@@ -165,7 +165,7 @@ function Room({ roomKey, role, initialViewKey }: { roomKey: string; role: Role; 
       window.removeEventListener('online', onOnline);
       prov?.destroy();
       void idb?.destroy();
-      doc.destroy();
+      // the doc is not destroyed here: React's strict mode (dev) runs this effect twice on one doc
     };
   }, [doc, role, roomKey]);
 

@@ -13,6 +13,7 @@ import { blankSection, templateByName, TEMPLATES } from '@/lib/section/templates
 import { parseSectionText } from '@/lib/section/validate';
 import type { BoardController } from '@/components/board/controller';
 import LiveBoard from '@/components/live/LiveBoard';
+import { SheetLink } from '@/components/sheet/SheetLink';
 
 const Board = dynamic(() => import('@/components/board/Board'), { ssr: false, loading: () => <p style={{ padding: 24 }}>Loading the board…</p> });
 
@@ -70,7 +71,12 @@ export default function SectionPage() {
         <p><a href="/">Back to the start page</a></p>
       </main>
     );
-  return <LiveBoard doc={doc!} origin={origin} onReady={(c) => expose(doc!, c)} />;
+  return (
+    <>
+      <LiveBoard doc={doc!} origin={origin} onReady={(c) => expose(doc!, c)} />
+      <SheetLink doc={doc!} />
+    </>
+  );
 }
 
 function expose(doc: Y.Doc, c: BoardController) {

@@ -28,9 +28,13 @@ export interface SheetMeta {
 const STATE_TEXT: Record<SurfaceState, string> = { fine: 'fine', 'mould risk': 'mould risk (surface RH ≥ 80 % at the coldest-month mean)', condensation: 'condensation (below the design-day dew point)' };
 const STATE_MARK: Record<SurfaceState, string> = { fine: '○', 'mould risk': '◇', condensation: '✕' };
 
-/** Drawing scale for the page: the smallest common scale at which the drawing fits 180 mm wide and 150 mm high. */
+/**
+ * Drawing scale for the page: the largest common scale (smallest N) at which the drawing fits 160 mm wide and
+ * 175 mm high, so that with its 2 x 6.35 mm padding it stays inside the printable width of A4 and Letter
+ * (186 mm with 12 mm margins) and prints at true scale.
+ */
 export function sheetScale(width: number, height: number): number {
-  for (const n of [5, 10, 20, 25, 50, 100, 200]) if ((width * 1000) / n <= 180 && (height * 1000) / n <= 150) return n;
+  for (const n of [5, 10, 20, 25, 50, 100, 200]) if ((width * 1000) / n <= 160 && (height * 1000) / n <= 175) return n;
   return 500;
 }
 

@@ -105,6 +105,7 @@ export default function SheetPage() {
   const [state, setState] = useState<{ phase: 'loading' | 'solving' } | { phase: 'error'; title: string; lines: string[] } | { phase: 'ready'; ready: Ready }>({ phase: 'loading' });
   const [paper, setPaper] = useState<'a4' | 'letter'>('a4');
   const [busy, setBusy] = useState<string | null>(null);
+  const [pictureScale, setPictureScale] = useState<number | null>(null);
   useEffect(() => {
     let cancelled = false;
     const q = new URLSearchParams(window.location.search);
@@ -150,6 +151,7 @@ export default function SheetPage() {
   const { ready } = state;
   const name = slug(ready.snapshot.name);
   const picture = (overlay: boolean) => {
+    if (pictureScale) return renderSectionSvg(ready.snapshot, ready.results, { scale: pictureScale, overlay, units: ready.meta.units });
     const r0 = renderSectionSvg(ready.snapshot, ready.results, { scale: 10, overlay, units: ready.meta.units });
     const n = sheetScale(r0.box.maxX - r0.box.minX, r0.box.maxY - r0.box.minY);
     return n === 10 ? r0 : renderSectionSvg(ready.snapshot, ready.results, { scale: n, overlay, units: ready.meta.units });
@@ -183,6 +185,10 @@ export default function SheetPage() {
         <button type="button" data-testid="download-png" onClick={() => { const r = picture(true); void svgToPngBlob(r.svg, r.width, r.height).then((b) => download(`${name}.png`, b)); }}>PNG</button>
         <button type="button" data-testid="download-svg" onClick={() => download(`${name}.svg`, new Blob([picture(true).svg], { type: 'image/svg+xml' }))}>SVG</button>
         <button type="button" data-testid="download-svg-plain" onClick={() => download(`${name}-materials.svg`, new Blob([picture(false).svg], { type: 'image/svg+xml' }))}>SVG, materials only</button>
+        <select aria-label="Picture scale" value={pictureScale ?? ''} onChange={(e) => setPictureScale(e.target.value ? Number(e.target.value) : null)} data-testid="picture-scale">
+          <option value="">pictures at the sheet&apos;s scale</option>
+          {[5, 10, 20, 50].map((n) => <option key={n} value={n}>pictures at 1:{n}</option>)}
+        </select>
         <select aria-label="Paper" value={paper} onChange={(e) => setPaper(e.target.value === 'letter' ? 'letter' : 'a4')} data-testid="paper">
           <option value="a4">A4</option>
           <option value="letter">Letter</option>

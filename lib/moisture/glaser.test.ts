@@ -124,6 +124,55 @@ describe('Glaser check on a 1-D wall computed by hand (ISO 13788 Glaser method; 
   });
 });
 
+describe('cut ends in the ground, membranes and a variable-permeance retarder', () => {
+  const ring = (x0: number, x1: number, y0 = 0, y1 = 1) => [[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]];
+  /** Soil on the left (x -1..0), 200 mm concrete, a variable-permeance retarder (drawn 1 mm), 50 mm board, the room on the right. */
+  function wallAgainstGround(): SectionSnapshot {
+    const v = validateSection({
+      format: 'dewline-section',
+      version: 1,
+      name: 'Wall against the ground',
+      materials: [{ id: 'brd', name: 'Board', lambda: 0.035, mu: 30, density: 30, source: src }],
+      parts: [
+        { id: 'soil', kind: 'polygon', material: 'soil-sand-gravel', order: 'a', x: 0, y: 0, points: ring(-1, 0) },
+        { id: 'wall', kind: 'polygon', material: 'concrete-2000', order: 'b', x: 0, y: 0, points: ring(0, 0.2) },
+        { id: 'vr', kind: 'polygon', material: 'vapour-retarder-variable', order: 'c', x: 0, y: 0, points: ring(0.2, 0.201) },
+        { id: 'brd', kind: 'polygon', material: 'brd', order: 'd', x: 0, y: 0, points: ring(0.201, 0.251) },
+      ],
+      zones: [
+        { id: 'deep', kind: 'fixed', name: 'Deep ground', order: 'a', shape: { type: 'rect', x: -1.5, y: 0, width: 0.5, height: 1 }, rs: 0, design: { t: 5, rh: null }, month: { t: 5, rh: null } },
+        { id: 'room', kind: 'indoor', name: 'Room', order: 'b', shape: { type: 'rect', x: 0.251, y: 0, width: 0.5, height: 1 }, design: { t: 20, rh: 60 }, month: { t: 20, rh: 60 } },
+      ],
+      cuts: [{ id: 'c', name: 'Through the wall', from: [-0.5, 0.5], to: [0.5, 0.5] }],
+    });
+    if (!v.ok) throw new Error(JSON.stringify(v.problems));
+    return v.section;
+  }
+  const s = wallAgainstGround();
+  const r = solveSectionSync(s, { mesh: 'default' });
+  const g = glaserAlongCut(s, r, s.cuts[0]);
+  it('starts at the face against the ground, saturated at its temperature, with the soil left out of the stack', () => {
+    expect(g.warm.zoneId).toBe('room');
+    expect(g.cold.kind).toBe('ground');
+    expect(g.layers.map((l) => l.materialId)).toEqual(['brd', 'vapour-retarder-variable', 'concrete-2000']);
+    const face = g.points[g.points.length - 1];
+    expect(g.cold.t).toBeCloseTo(face.t, 12);
+    expect(g.cold.p).toBeCloseTo(pSat(face.t), 9);
+    // 1-D hand check of the face temperature (ISO 6946 series resistances; Rsi 0.25 of the surface run):
+    // R = 0.25 + 0.05/0.035 + 0.001/0.4 + 0.2/1.35 + 1.0/2.0 (soil) and the fixed zone at 5 C with Rs 0.
+    const R = [0.25, 0.05 / 0.035, 0.001 / 0.4, 0.2 / 1.35, 1.0 / 2.0];
+    const q = 15 / R.reduce((a, b) => a + b, 0);
+    expect(face.t).toBeCloseTo(5 + q * 0.5, 3);
+  });
+  it('takes the membrane by its own winter sd, whatever its drawn thickness', () => {
+    const vr = g.layers[1];
+    expect(vr.sd).toBe(4);
+    expect(vr.sdFrom).toBe('winter sd (variable-permeance retarder)');
+    expect(g.layers[0].sd).toBeCloseTo(30 * 0.05, 12);
+    expect(g.layers[2].sd).toBeCloseTo(60 * 0.2, 12); // concrete-2000: mu 60 (ISO 10456 in the library)
+  });
+});
+
 describe('glaserLine: the tangent construction', () => {
   it('is the straight line when nothing reaches saturation', () => {
     const l = glaserLine([0, 1, 3], [2000, 1500, 1000], 1000, 400);

@@ -96,3 +96,22 @@ describe('dewline render', () => {
     }
   }, 60_000);
 });
+
+describe('glaserChartSvg', () => {
+  it('draws both pressure lines, one cross per condensation interface and a band per layer', async () => {
+    const { glaserForSection } = await import('../moisture/cut');
+    const { glaserChartSvg } = await import('./glaser-chart');
+    const c = templateByName('crawlspace-unvented')!.build();
+    const rc = solveSectionSync(c, { mesh: 'preview' });
+    const g = glaserForSection(c, rc).find((o) => o.check)!.check!;
+    const svg = glaserChartSvg(g);
+    expect(svg).toContain('data-line="psat"');
+    expect(svg).toContain('data-line="p"');
+    expect((svg.match(/data-condensation="/g) ?? []).length).toBe(g.condensation.length);
+    expect(g.condensation.length).toBeGreaterThan(0);
+    expect((svg.match(/<rect x="[\d.]+" y="30" /g) ?? []).length).toBe(g.layers.length);
+    // The p line ends at the cold side's vapour pressure: its last point's y is the chart's y of p_e.
+    const d = /d="([^"]+)" fill="none" stroke="#2166ac"/.exec(svg)![1];
+    expect(d.split('L').length).toBe(g.points.length);
+  });
+});

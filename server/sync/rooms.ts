@@ -7,7 +7,8 @@
  * queue of a room is flushed once per turn of the event loop (setImmediate): every queued update is
  * appended to SQLite in one transaction (one commit, so one sync to disk for the whole batch), then
  * each is applied with Y.applyUpdate, whose 'update' event broadcasts it to the other connections.
- * So nobody receives an update that is not on disk, and a burst from many people costs one commit.
+ * So nobody receives an update that is not on disk, and a burst from many people costs one commit;
+ * a batch of several updates also goes out as one merged update per connection.
  */
 import * as Y from 'yjs';
 import * as awarenessProtocol from 'y-protocols/awareness';
@@ -69,6 +70,8 @@ export interface Room {
   queue: { conn: Connection; update: Uint8Array }[];
   queuedBytes: number;
   flushScheduled: boolean;
+  /** while a batch of several updates is applied: its broadcast goes out merged, after the batch */
+  holdBroadcast: boolean;
 }
 
 export interface RoomStats {
@@ -79,12 +82,14 @@ export interface RoomStats {
   compactions: number;
   /** storage commits of queued updates (each holds one or more updates) */
   commits: number;
+  /** batches broadcast as one merged update */
+  mergedBroadcasts: number;
 }
 
 export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log: Logger }) {
   const { storage, limits, log } = deps;
   const rooms = new Map<string, Room>();
-  const stats: RoomStats = { roomsLoaded: 0, connections: 0, updatesStored: 0, viewUpdatesDropped: 0, compactions: 0, commits: 0 };
+  const stats: RoomStats = { roomsLoaded: 0, connections: 0, updatesStored: 0, viewUpdatesDropped: 0, compactions: 0, commits: 0, mergedBroadcasts: 0 };
   const roomTag = (id: string) => id.slice(0, 8);
 
   function send(conn: Connection, frame: Uint8Array): void {
@@ -144,8 +149,10 @@ export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log
       queue: [],
       queuedBytes: 0,
       flushScheduled: false,
+      holdBroadcast: false,
     };
     doc.on('update', (update: Uint8Array, origin: unknown) => {
+      if (room.holdBroadcast) return;
       const frame = encodeUpdateMessage(update);
       for (const c of room.conns) if (c !== origin) send(c, frame);
     });
@@ -231,17 +238,33 @@ export function createRoomRegistry(deps: { storage: Storage; limits: Limits; log
       for (const c of new Set(batch.map((b) => b.conn))) closeConnection(c, closeCodes.internalError, 'storage failure');
       return;
     }
-    for (let i = 0; i < batch.length; i++) {
-      const { conn, update } = batch[i];
-      room.lastSeq = seqs[i];
-      room.storedBytes += update.length;
-      room.pendingUpdates++;
-      stats.updatesStored++;
-      Y.applyUpdate(room.doc, update, conn);
-      // compaction covers seq <= lastSeq only: the rest of the batch stays stored until it is applied
-      if (room.pendingUpdates >= limits.compactEveryUpdates) compact(room, 'count');
+    // One update: broadcast by the doc's 'update' event to all but its sender. Several: one merged
+    // update per connection for the whole batch (one frame instead of one per update; a sender
+    // receiving its own updates back is a no-op in Yjs).
+    const merge = batch.length > 1;
+    room.holdBroadcast = merge;
+    try {
+      for (let i = 0; i < batch.length; i++) {
+        const { conn, update } = batch[i];
+        room.lastSeq = seqs[i];
+        room.storedBytes += update.length;
+        room.pendingUpdates++;
+        stats.updatesStored++;
+        Y.applyUpdate(room.doc, update, conn);
+        // compaction covers seq <= lastSeq only: the rest of the batch stays stored until it is applied
+        if (room.pendingUpdates >= limits.compactEveryUpdates) compact(room, 'count');
+      }
+    } finally {
+      room.holdBroadcast = false;
     }
     stats.commits++;
+    if (merge) {
+      const frame = encodeUpdateMessage(Y.mergeUpdates(batch.map((b) => b.update)));
+      const senders = new Set(batch.map((b) => b.conn));
+      const only = senders.size === 1 ? batch[0].conn : null;
+      for (const c of room.conns) if (c !== only) send(c, frame);
+      stats.mergedBroadcasts++;
+    }
   }
 
   function handleFrame(conn: Connection, frame: Uint8Array): void {

@@ -7,6 +7,7 @@ import type { Page, TestInfo } from '@playwright/test';
 import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
+import { resolveSection } from '../../lib/section/resolve';
 import { templateByName } from '../../lib/section/templates';
 
 test.setTimeout(240_000);
@@ -143,7 +144,7 @@ test('edit a template: type a thickness, drag the wall, draw a polygon, undo twi
   await shot(page, info, '4-reopened');
 });
 
-test('multi-select with shift and a box, then delete; undo brings them back', async ({ page }, info) => {
+test('multi-select with shift-click and with a box, then delete; undo brings them back', async ({ page }, info) => {
   await openTemplate(page);
   const n0 = (await snapshot(page)).parts.length;
   await page.mouse.click(...Object.values(await centreOf(page, 'footing')) as [number, number]);
@@ -160,6 +161,17 @@ test('multi-select with shift and a box, then delete; undo brings them back', as
   await page.keyboard.press('Control+z');
   expect((await snapshot(page)).parts.length).toBe(n0);
 
+  // A box dragged from empty space (above the model) selects every part entirely inside it.
+  const from: [number, number] = [-0.05, 1.7], to: [number, number] = [0.3, -0.15];
+  const a = await client(page, ...from), b = await client(page, ...to);
+  await drag(page, a, b.x - a.x, b.y - a.y, 10);
+  const r = { minX: from[0], maxX: to[0], minY: to[1], maxY: from[1] };
+  const inside = [...resolveSection((await snapshot(page)) as never).parts.values()].filter((p) => p.box.minX >= r.minX && p.box.maxX <= r.maxX && p.box.minY >= r.minY && p.box.maxY <= r.maxY).map((p) => p.id).sort();
+  expect(inside).toEqual(['edge', 'plate', 'wall']);
+  await expect.poll(() => dew(page, (d) => [...d.selection().parts].sort())).toEqual(inside);
+  await shot(page, info, 'box-selected');
+  await page.keyboard.press('Delete');
+  expect((await snapshot(page)).parts.length).toBe(n0 - 3);
 });
 
 test('a locked part cannot be dragged; unlocked it can', async ({ page }, info) => {
@@ -248,4 +260,97 @@ test.describe('tablet', () => {
     await expect.poll(async () => (await box(page, 'footing'))!.minX).toBeGreaterThan(b0.minX + 0.05);
     await shot(page, info, 'tablet-dragged');
   });
+});
+
+/**
+ * The first steps of docs/board-usage.md, as written there: from a blank board, with the palette, typed
+ * values and joins, the footing, the stem wall, the slab-edge break and the room land exactly where the
+ * slab-edge template has them. With DEWLINE_WRITE_DOCS=1 the screenshot is written to docs/img/board.png.
+ */
+test('a newcomer rebuilds the slab-edge junction from a blank board, as docs/board-usage.md says', async ({ page }, info) => {
+  await page.goto('/section?blank=1');
+  await page.waitForFunction(() => Boolean((window as unknown as { __dewline?: { controller?: unknown } }).__dewline?.controller), null, { timeout: 90_000 });
+  const canvas = page.getByTestId('board-canvas');
+  const cb = (await canvas.boundingBox())!;
+  const panel = page.getByTestId('part-panel');
+  const type = async (testId: string, text: string) => {
+    const f = page.getByTestId(testId);
+    await f.fill(text);
+    await f.press('Enter');
+    await expect(page.getByTestId(`${testId}-error`)).toHaveCount(0);
+  };
+  const idOf = async (kind: string) => (await snapshot(page)).parts.filter((p) => p.kind === kind).at(-1)!.id;
+  const join = async (to: string, its: string, self: string) => {
+    await panel.getByText('Join to a part').click();
+    await page.getByTestId('join-to').selectOption({ label: to });
+    await panel.getByLabel('Its point').selectOption({ label: its });
+    await panel.getByLabel("This part's point").selectOption({ label: self });
+    await page.getByTestId('join').click();
+    await expect(page.getByTestId('join-info')).toBeVisible();
+  };
+
+  // Step 1: the footing. Palette, click on the board, then the exact values (a bare number is in mm).
+  await page.getByTestId('palette-footing').click();
+  await page.mouse.click(cb.x + cb.width * 0.3, cb.y + cb.height * 0.7);
+  await type('field-name', 'Footing');
+  await type('field-width', '600');
+  await type('field-depth', '250 mm');
+  await type('field-x', '-200');
+  await type('field-y', '-1.2 m');
+
+  // Step 2: the stem wall, joined on top of the footing (it follows the footing from now on).
+  await page.getByTestId('palette-foundation-wall').click();
+  await page.mouse.click(cb.x + cb.width * 0.6, cb.y + cb.height * 0.3);
+  await type('field-name', 'Stem wall');
+  await type('field-thickness', '200');
+  await type('field-height', '1150');
+  await join('Footing', 'top center', 'bottom center');
+
+  // Step 3: the slab-edge break: a vertical board whose top-left sits on the stem wall's top-right.
+  await page.getByTestId('palette-board').click();
+  await page.mouse.click(cb.x + cb.width * 0.7, cb.y + cb.height * 0.5);
+  await type('field-name', 'Slab-edge break');
+  await page.getByTestId('field-placement').selectOption('slab-edge');
+  await page.getByTestId('field-orientation').selectOption('vertical');
+  await type('field-thickness', '25 mm');
+  await type('field-length', '300');
+  await join('Stem wall', 'top right', 'top left');
+
+  // Step 4: the room: the indoor-air zone dragged out, then typed exactly.
+  await page.getByTestId('palette-zone-indoor').click();
+  await page.mouse.move(cb.x + cb.width * 0.75, cb.y + cb.height * 0.2);
+  await page.mouse.down();
+  await page.mouse.move(cb.x + cb.width * 0.9, cb.y + cb.height * 0.3, { steps: 4 });
+  await page.mouse.up();
+  const zp = page.getByTestId('zone-panel');
+  await expect(zp).toBeVisible();
+  for (const [label, text] of [['Name', 'Living room'], ['x', '60'], ['y', '200'], ['Width', '4.14 m'], ['Height', '1.4 m']] as const) {
+    const f = zp.getByLabel(label, { exact: true });
+    await f.fill(text);
+    await f.press('Enter');
+  }
+
+  // The result sits exactly where the template has it.
+  const tpl = resolveSection(templateByName('slab-edge-break')!.build());
+  const mine = await snapshot(page);
+  const want: [string, string][] = [['footing', 'footing'], ['foundation-wall', 'stem'], ['board', 'edge']];
+  for (const [kind, tid] of want) {
+    const got = (await box(page, await idOf(kind)))!;
+    const ref = tpl.parts.get(tid)!.box;
+    for (const k of ['minX', 'minY', 'maxX', 'maxY'] as const) expect(got[k], `${tid}.${k}`).toBeCloseTo(ref[k], 9);
+  }
+  const room = (mine as unknown as { zones: { name: string; shape: { x: number; y: number; width: number; height: number } }[] }).zones.find((z) => z.name === 'Living room')!;
+  const tplRoom = templateByName('slab-edge-break')!.build().zones.find((z) => z.id === 'room')!;
+  expect(room.shape).toMatchObject({ type: 'rect' });
+  for (const k of ['x', 'y', 'width', 'height'] as const) expect(room.shape[k]).toBeCloseTo((tplRoom.shape as typeof room.shape)[k], 9);
+
+  // The screenshot for the guide: the break selected, its handles and typed values in view.
+  await page.getByRole('button', { name: 'Whole section' }).click();
+  const edge = await centreOf(page, await idOf('board'));
+  await page.mouse.click(edge.x, edge.y);
+  await expect(panel).toBeVisible();
+  const out = process.env.DEWLINE_WRITE_DOCS ? path.resolve('docs/img/board.png') : info.outputPath('board.png');
+  fs.mkdirSync(path.dirname(out), { recursive: true });
+  await page.screenshot({ path: out });
+  await info.attach('board', { path: out, contentType: 'image/png' });
 });

@@ -4,6 +4,10 @@
  * storage, its own websocket.
  */
 import { expect, test, type Browser, type BrowserContext, type Page } from '@playwright/test';
+import { spawn, type ChildProcess } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { templateByName } from '../../lib/section/templates';
 
 test.setTimeout(300_000);
@@ -84,6 +88,7 @@ test('two people on one edit link: edits, presence, pointer, selection and per-p
   // and their selection, outlined
   await a.evaluate(() => (window as any).__dewline.select(['slab']));
   await expect(b.getByTestId('peer-selection-slab')).toBeVisible({ timeout: 5_000 });
+  await b.screenshot({ path: 'test-results/rooms/other-persons-pointer.png' });
 
   // per-person undo: B's own edit survives A's undo
   expect(await b.evaluate(() => (window as any).__dewline.controller.updatePart('stem', { thickness: 0.25 }))).toBeNull();
@@ -146,6 +151,7 @@ test('replacing a link revokes the old one, and the page says so', async ({ brow
   await b.goto(editUrl);
   await ready(b);
 
+  await v.screenshot({ path: 'test-results/rooms/view-link.png' });
   await a.getByTestId('rotate-view').click();
   await a.getByTestId('rotate-view-confirm').click();
   await expect(v.getByTestId('revoked')).toContainText('Link revoked', { timeout: 10_000 });
@@ -240,4 +246,128 @@ test('edits made offline sync when the connection returns', async ({ browser }) 
   await expect(a.getByTestId('connection')).toHaveAttribute('data-status', 'live', { timeout: 30_000 });
   await expect.poll(() => thickness(b, 'edge'), { timeout: 10_000 }).toBe(0.015);
   await expect.poll(() => thickness(a, 'stem'), { timeout: 10_000 }).toBe(0.3);
+});
+
+test('an edit made offline survives closing the page and reaches the room from the next page in that browser', async ({ browser }) => {
+  const a = await person(browser);
+  const { editUrl } = await newRoom(a);
+  const b = await person(browser);
+  await b.goto(editUrl);
+  await ready(b);
+  const ctx = a.context();
+  await ctx.setOffline(true);
+  await expect(a.getByTestId('connection')).toHaveAttribute('data-status', 'offline', { timeout: 10_000 });
+  expect(await a.evaluate(() => (window as any).__dewline.controller.updatePart('edge', { thickness: 0.012 }))).toBeNull();
+  // give y-indexeddb its moment to write, then close the page while still offline
+  await a.waitForTimeout(500);
+  await a.close();
+  await ctx.setOffline(false);
+  await b.waitForTimeout(1_000);
+  expect(await thickness(b, 'edge')).toBe(0.025);
+  const a2 = await ctx.newPage();
+  await a2.goto(editUrl);
+  await ready(a2);
+  await expect.poll(() => thickness(b, 'edge'), { timeout: 10_000 }).toBe(0.012);
+});
+
+/** server/main.ts (app and sync on one port) as a child process of the test, so it can be SIGKILLed. */
+async function startOwnServer(port: number, db: string): Promise<ChildProcess> {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', NODE_ENV: 'production', DEWLINE_DB: db, DEWLINE_LOG_LEVEL: 'warn' },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const t0 = Date.now();
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited with ${child.exitCode}`);
+    try {
+      const r = await fetch(`http://127.0.0.1:${port}/healthz`);
+      if (r.ok) return child;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() - t0 > 120_000) throw new Error('server did not start in 120 s');
+    await new Promise((r) => setTimeout(r, 250));
+  }
+}
+
+test('both people keep their edits when the server is killed and restarted', async ({ browser }) => {
+  // a port next to this run's own (DEWLINE_E2E_PORT + 1000), with its own database
+  const port = Number(process.env.DEWLINE_E2E_PORT ?? 3417) + 1000;
+  const db = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'dewline-e2e-restart-')), 'rooms.sqlite');
+  let server = await startOwnServer(port, db);
+  try {
+    const base = `http://127.0.0.1:${port}`;
+    const a = await person(browser);
+    await a.goto(base + '/');
+    await a.getByTestId('start-shared').check();
+    await a.getByTestId('template-slab-edge-break').click();
+    await a.waitForURL(/\/s\/[A-Za-z0-9_-]{22}$/);
+    await ready(a);
+    const editUrl = a.url();
+    const b = await person(browser);
+    await b.goto(editUrl);
+    await ready(b);
+    expect(await a.evaluate(() => (window as any).__dewline.controller.updatePart('edge', { thickness: 0.02 }))).toBeNull();
+    await expect.poll(() => thickness(b, 'edge'), { timeout: 5_000 }).toBe(0.02);
+
+    server.kill('SIGKILL');
+    await new Promise((r) => server.once('exit', r));
+    await expect(a.getByTestId('connection')).toHaveAttribute('data-status', 'reconnecting', { timeout: 30_000 });
+    await expect(b.getByTestId('connection')).toHaveAttribute('data-status', 'reconnecting', { timeout: 30_000 });
+    // both keep editing while the server is down
+    expect(await a.evaluate(() => (window as any).__dewline.controller.updatePart('stem', { thickness: 0.22 }))).toBeNull();
+    expect(await b.evaluate(() => (window as any).__dewline.controller.updatePart('subslab', { thickness: 0.075 }))).toBeNull();
+
+    server = await startOwnServer(port, db);
+    await expect(a.getByTestId('connection')).toHaveAttribute('data-status', 'live', { timeout: 60_000 });
+    await expect(b.getByTestId('connection')).toHaveAttribute('data-status', 'live', { timeout: 60_000 });
+    await expect.poll(() => thickness(a, 'subslab'), { timeout: 10_000 }).toBe(0.075);
+    await expect.poll(() => thickness(b, 'stem'), { timeout: 10_000 }).toBe(0.22);
+    // and the server stored all three: a third person gets them from the server alone
+    const c = await person(browser);
+    await c.goto(editUrl);
+    await ready(c);
+    const s = await snap(c);
+    expect(s.parts.find((p) => p.id === 'edge')?.thickness).toBe(0.02);
+    expect(s.parts.find((p) => p.id === 'stem')?.thickness).toBe(0.22);
+    expect(s.parts.find((p) => p.id === 'subslab')?.thickness).toBe(0.075);
+  } finally {
+    server.kill('SIGTERM');
+  }
+});
+
+test('a section file and a blank board each open into a new room; a bad file makes no room', async ({ browser }) => {
+  const a = await person(browser);
+  const s = templateByName('crawlspace-unvented')!.build();
+  s.name = 'Hollow Oak crawl space';
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'dewline-e2e-'));
+  const file = path.join(dir, 'crawl.json');
+  fs.writeFileSync(file, JSON.stringify(s));
+  await a.goto('/');
+  await a.getByTestId('start-shared').check();
+  await a.getByTestId('open-file').setInputFiles(file);
+  await a.waitForURL(/\/s\/[A-Za-z0-9_-]{22}$/);
+  await ready(a);
+  expect((await snap(a)).name).toBe('Hollow Oak crawl space');
+  expect((await snap(a)).parts.length).toBe(s.parts.length);
+  // a reload does not write the file a second time over later edits
+  expect(await a.evaluate(() => (window as any).__dewline.controller.updatePart((window as any).__dewline.snapshot().parts[0].id, { name: 'Edited after start' }))).toBeNull();
+  await a.reload();
+  await ready(a);
+  expect((await snap(a)).parts[0]).toMatchObject({ name: 'Edited after start' });
+
+  const broken = JSON.parse(JSON.stringify(s));
+  broken.parts[0].kind = 'no-such-kind';
+  const bad = path.join(dir, 'bad.json');
+  fs.writeFileSync(bad, JSON.stringify(broken));
+  await a.goto('/');
+  await a.getByTestId('start-shared').check();
+  await a.getByTestId('open-file').setInputFiles(bad);
+  await expect(a.getByTestId('open-problems')).toContainText('bad.json: parts[0]');
+  expect(new URL(a.url()).pathname).toBe('/');
+
+  await a.getByTestId('start-blank').click();
+  await a.waitForURL(/\/s\/[A-Za-z0-9_-]{22}$/);
+  await ready(a);
+  expect((await snap(a)).parts).toEqual([]);
 });

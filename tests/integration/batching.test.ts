@@ -38,4 +38,28 @@ describe('group commit of updates', () => {
     const fromStore = docFromStored(srv.sync.storage.loadRoom(roomId));
     for (const k of [0, 1, 2]) expect(fromStore.getArray(`log${k}`).toJSON()).toEqual(cs[0].doc.getArray(`log${k}`).toJSON());
   });
+
+  it('a batch reaches a listener as fewer frames than updates, each stored before it is sent', async () => {
+    const { editKey } = await createRoom(srv.base);
+    const roomId = srv.sync.storage.findKey(hashKey(editKey))!.roomId;
+    const writer = connectClient(srv.wsBase, editKey);
+    const listener = connectClient(srv.wsBase, editKey);
+    clients.push(writer, listener);
+    await Promise.all([writer.synced(), listener.synced()]);
+    // count the listener's incoming sync frames, and check storage already holds each one's content
+    let frames = 0;
+    let ahead = 0;
+    listener.provider.ws!.addEventListener('message', () => {
+      frames++;
+      const stored = docFromStored(srv.sync.storage.loadRoom(roomId)).getArray('burst').length;
+      if (stored < listener.doc.getArray('burst').length) ahead++;
+    });
+    const before = srv.sync.stats().mergedBroadcasts;
+    for (let i = 0; i < 60; i++) writer.doc.getArray('burst').push([i]);
+    await waitFor('listener has the burst', () => listener.doc.getArray('burst').length === 60);
+    expect(listener.doc.getArray('burst').toJSON()).toEqual(Array.from({ length: 60 }, (_, i) => i));
+    expect(srv.sync.stats().mergedBroadcasts).toBeGreaterThan(before);
+    expect(frames).toBeLessThan(60);
+    expect(ahead).toBe(0);
+  });
 });

@@ -17,7 +17,10 @@ import type { SectionResults } from '../../lib/thermal/types';
 import type { PlainSection } from './sections';
 import { PROPERTY_MESH, buildPlain, mirrorPlain, plainFromSnapshot, plainSectionArb, scaleMaterial } from './sections';
 
-const RUNS = { maximum: 100, mirror: 60, monotone: 60 };
+/** DEWLINE_PROPERTY_SCALE=10 runs ten times as many random sections (a deeper search; default 1). */
+const SCALE = Math.max(1, Number(process.env.DEWLINE_PROPERTY_SCALE ?? 1) || 1);
+const TIGHT = { rtol: 1e-12, ftol: 0, btol: 0 };
+const RUNS = { maximum: 100 * SCALE, mirror: 60 * SCALE, monotone: 60 * SCALE };
 /** Random sections per run, in total (the issue asks for at least 200). */
 export const RANDOM_SECTIONS = RUNS.maximum + RUNS.mirror + RUNS.monotone;
 
@@ -51,7 +54,29 @@ function checkMaximumPrinciple(r: SectionResults): void {
   expect(n).toBeGreaterThan(0);
 }
 
+/**
+ * ISO 10211 energy balance below 1e-4. When every zone touching the construction has the same
+ * temperature there is no heat flow and the ratio is 0 / 0: the flows are rounding noise and the
+ * reported balance can be anything up to 2 (found by this test; see docs/solver.md). Then the flows
+ * themselves must vanish instead.
+ */
+function checkBalance(r: SectionResults): void {
+  const ts = r.zones.filter((z) => z.touches).map((z) => z.design.t);
+  if (Math.max(...ts) - Math.min(...ts) > 0) {
+    expect(r.energyBalance).toBeLessThan(1e-4);
+    return;
+  }
+  const scale = Math.max(1, ...ts.map(Math.abs));
+  for (const z of r.zones) expect(Math.abs(z.phi)).toBeLessThan(1e-9 * scale * Math.max(1, r.l2d ?? 1));
+}
+
 function checkMirror(a: SectionResults, b: SectionResults): void {
+  const tz = a.zones.filter((z) => z.touches).map((z) => z.design.t);
+  if (Math.max(...tz) === Math.min(...tz)) {
+    // No temperature difference: both fields are that one temperature (flows are rounding noise).
+    for (const r of [a, b]) for (const t of r.field.t) if (t !== null) expect(Math.abs(t - tz[0])).toBeLessThan(1e-9 * Math.max(1, Math.abs(tz[0])));
+    return;
+  }
   const big = Math.max(1e-9, ...a.zones.map((z) => Math.abs(z.phi)));
   for (const z of a.zones) {
     const m = b.zones.find((x) => x.id === z.id)!;
@@ -63,8 +88,8 @@ function checkMirror(a: SectionResults, b: SectionResults): void {
   expect(b.field.xs.length - 1).toBe(nx);
   expect(b.field.ys).toEqual(a.field.ys);
   a.field.xs.forEach((x, i) => expect(Math.abs(b.field.xs[nx - i] + x)).toBeLessThan(1e-9));
-  const ts = a.zones.map((z) => z.design.t);
-  const range = Math.max(1, Math.max(...ts) - Math.min(...ts));
+  const ts = a.zones.filter((z) => z.touches).map((z) => z.design.t);
+  const range = Math.max(1e-9, Math.max(...ts) - Math.min(...ts));
   for (let j = 0; j < ny; j++)
     for (let i = 0; i < nx; i++) {
       const ta = a.field.t[j * nx + i], tb = b.field.t[j * nx + (nx - 1 - i)];
@@ -79,22 +104,24 @@ describe('properties on random sections (fast-check)', () => {
       fc.property(plainSectionArb, (p) => {
         const r = solveSectionSync(buildPlain(p), { mesh: PROPERTY_MESH, probes: gridProbes(p) });
         checkMaximumPrinciple(r);
-        expect(r.energyBalance).toBeLessThan(1e-4);
+        checkBalance(r);
       }),
       { numRuns: RUNS.maximum },
     );
-  }, 120_000);
+  }, 120_000 * SCALE);
 
   it(`mirror symmetry about a vertical line: same flows, mirrored field (${RUNS.mirror} sections)`, () => {
     fc.assert(
       fc.property(plainSectionArb, (p) => {
-        const a = solveSectionSync(buildPlain(p), { mesh: PROPERTY_MESH });
-        const b = solveSectionSync(buildPlain(mirrorPlain(p)), { mesh: PROPERTY_MESH });
+        // Solved to a tight residual, so what is compared is the discretisation, not where two
+        // iterations (on differently numbered unknowns) happened to stop.
+        const a = solveSectionSync(buildPlain(p), { mesh: PROPERTY_MESH, stop: TIGHT });
+        const b = solveSectionSync(buildPlain(mirrorPlain(p)), { mesh: PROPERTY_MESH, stop: TIGHT });
         checkMirror(a, b);
       }),
       { numRuns: RUNS.mirror },
     );
-  }, 120_000);
+  }, 120_000 * SCALE);
 
   it(`Rayleigh monotonicity: lowering one block's conductivity never raises L2D (${RUNS.monotone} sections)`, () => {
     fc.assert(
@@ -107,7 +134,7 @@ describe('properties on random sections (fast-check)', () => {
       }),
       { numRuns: RUNS.monotone },
     );
-  }, 120_000);
+  }, 120_000 * SCALE);
 
   it('counts at least 200 random sections per run', () => expect(RANDOM_SECTIONS).toBeGreaterThanOrEqual(200));
 });
@@ -115,10 +142,13 @@ describe('properties on random sections (fast-check)', () => {
 describe('properties on every template (preview mesh)', () => {
   for (const t of TEMPLATES) {
     const p = plainFromSnapshot(t.build());
-    it(`${t.name}: maximum principle and energy balance below 1e-4`, () => {
+    it(`${t.name}: maximum principle and energy balance below 1e-4 (preview and default mesh)`, () => {
       const r = solveSectionSync(t.build(), { mesh: 'preview' });
       checkMaximumPrinciple(r);
       expect(r.energyBalance).toBeLessThan(1e-4);
+      const d = solveSectionSync(t.build(), { mesh: 'default' });
+      checkMaximumPrinciple(d);
+      expect(d.energyBalance).toBeLessThan(1e-4);
       // The plain-polygon copy used below solves to the same flows as the template itself.
       const q = solveSectionSync(buildPlain(p), { mesh: 'preview', omitField: true });
       for (const z of r.zones) expect(q.zones.find((x) => x.id === z.id)!.phi).toBeCloseTo(z.phi, 9);

@@ -24,6 +24,15 @@ describe('ISO 6946 layered walls through the 2-D solver', () => {
       expect(Math.abs(r.ours - r.reference) / r.scale).toBeLessThanOrEqual(1e-6);
     });
 
+  it('is exact on every built-in mesh level, not only the one in the table (1-D: harmonic face conductances are exact)', () => {
+    const st = STACKS[2];
+    for (const mesh of ['preview', 'default', 'fine'] as const) {
+      const r = solveSectionSync(layeredSection(st, 'wall', 20, -10), { mesh, stop: LAYERED_STOP, omitField: true });
+      const u = r.zones.find((z) => z.id === 'in')!.phi / 30;
+      expect(Math.abs(u / layeredU(st, ISO6946.horizontal) - 1), mesh).toBeLessThan(1e-6);
+    }
+  });
+
   it('hand check of one U: 3-layer wall, Rsi 0.13, Rse 0.04 (ISO 6946)', () => {
     // 0.0125/0.25 + 0.1/0.035 + 0.2/2.0 = 0.05 + 2.857142857 + 0.1 = 3.007142857; + 0.17 -> U = 1/3.177142857
     expect(layeredU(STACKS[1], ISO6946.horizontal)).toBeCloseTo(1 / 3.177142857142857, 12);

@@ -1,0 +1,274 @@
+/**
+ * npm run bench:ui: the real app in Chromium (Debian's, or $CHROMIUM_PATH), figures only, never pass/fail.
+ *
+ * For each template, and for a stress section of 200 parts on screen (our own: the slab-edge template
+ * plus small board pieces laid out in the ground), it drags the footing slowly with the mouse and
+ * measures in the page:
+ *   - frame intervals (requestAnimationFrame) while idle and while dragging;
+ *   - long tasks (PerformanceObserver 'longtask': every main-thread task over 50 ms);
+ *   - result refreshes per second while dragging (results from the worker at the preview mesh);
+ *   - the preview solve time reported by the worker and the default solve after release.
+ * Targets: at least 10 refreshes per second while dragging; no main-thread task over 50 ms.
+ * Ratios are taken within the same run (drag frame vs idle frame, refresh interval vs preview solve time).
+ *
+ * The server is started the way playwright.config.ts starts it (built app, loopback, its own SQLite
+ * file), unless DEWLINE_URL names a running one. Options: --drag-ms 3000, --only NAME, --json FILE.
+ */
+import { spawn } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium } from 'playwright-core';
+import type { Page } from 'playwright-core';
+import { docFromSnapshot } from '../lib/section/doc';
+import { addPart, currentSection } from '../lib/section/ops';
+import type { SectionSnapshot } from '../lib/section/schema';
+import { TEMPLATES, templateByName } from '../lib/section/templates/index';
+import { buildIfStale, root } from '../scripts/build-if-stale.mjs';
+import { findChromium } from '../scripts/find-chromium.mjs';
+
+const arg = (name: string, def: string) => (process.argv.includes(name) ? process.argv[process.argv.indexOf(name) + 1] : def);
+const DRAG_MS = Number(arg('--drag-ms', '3000'));
+const ONLY = arg('--only', '');
+const JSON_OUT = arg('--json', '');
+/** --profile: also print the page's main-thread functions by self time during the drag (CDP profiler). */
+const PROFILE = process.argv.includes('--profile');
+const TARGET_RPS = 10;
+const TARGET_TASK_MS = 50;
+
+/** The slab-edge template plus small boards in the ground until the section holds `total` parts. */
+export function stressSection(total = 200): SectionSnapshot {
+  const doc = docFromSnapshot(templateByName('slab-edge-break')!.build());
+  const origin = { who: 'bench' };
+  let n = currentSection(doc).parts.length;
+  for (let j = 0; n < total; j++)
+    for (let i = 0; i < 19 && n < total; i++, n++)
+      addPart(doc, origin, { kind: 'board', x: 0.5 + i * 0.15, y: -0.45 - j * 0.15, name: `piece ${n}`, params: { orientation: 'horizontal', thickness: 0.05, length: 0.08 } });
+  const s = currentSection(doc);
+  s.name = 'Stress section: 200 parts';
+  doc.destroy();
+  return s;
+}
+
+async function startServer(): Promise<{ url: string; stop: () => void }> {
+  if (process.env.DEWLINE_URL) return { url: process.env.DEWLINE_URL.replace(/\/$/, ''), stop: () => {} };
+  if (buildIfStale() !== 0) throw new Error('next build failed');
+  const port = Number(process.env.DEWLINE_BENCH_PORT ?? 3500 + Math.floor(Math.random() * 400));
+  const child = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), 'server/main.ts'], {
+    cwd: root,
+    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', NODE_ENV: 'production', DEWLINE_DB: path.join(os.tmpdir(), `dewline-bench-${process.pid}.sqlite`) },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const url = `http://127.0.0.1:${port}`;
+  for (let i = 0; i < 240; i++) {
+    try {
+      if ((await fetch(`${url}/healthz`)).ok) return { url, stop: () => child.kill('SIGTERM') };
+    } catch {
+      /* not up yet */
+    }
+    await new Promise((r) => setTimeout(r, 500));
+  }
+  child.kill('SIGTERM');
+  throw new Error('the server did not start');
+}
+
+/**
+ * In the page: record frame times, long tasks and result arrivals from now on. Plain JavaScript text, so
+ * the bundler's helpers (tsx names functions) do not leak into the page.
+ */
+const INSTALL = `(() => {
+  const b = (window.__bench = { frames: [], tasks: [], results: [], last: -1 });
+  new PerformanceObserver((list) => {
+    for (const e of list.getEntries()) b.tasks.push({ at: e.startTime, ms: e.duration });
+  }).observe({ type: 'longtask', buffered: false });
+  function tick(t) {
+    b.frames.push(t);
+    const l = window.__dewline.live;
+    if (l && l.refreshes !== b.last) {
+      b.last = l.refreshes;
+      b.results.push({ at: l.at, mesh: l.mesh, version: l.version, ms: l.ms, cells: l.cells });
+    }
+    requestAnimationFrame(tick);
+  }
+  requestAnimationFrame(tick);
+})()`;
+
+interface Figures {
+  name: string;
+  parts: number;
+  idleFrameP50: number;
+  dragFrameP50: number;
+  dragFrameP95: number;
+  dragFrameMax: number;
+  framesOver50: number;
+  dragFrames: number;
+  longTasks: number;
+  longestTaskMs: number;
+  refreshesPerSecond: number;
+  previewResults: number;
+  previewSolveMsMedian: number;
+  previewCells: number;
+  defaultSolveMs: number;
+  defaultCells: number;
+  dragMs: number;
+}
+
+const quantile = (xs: number[], q: number) => {
+  if (!xs.length) return NaN;
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.floor(q * (s.length - 1) + 0.5))];
+};
+const intervals = (ts: number[]) => ts.slice(1).map((t, i) => t - ts[i]);
+
+async function waitSettled(page: Page) {
+  await page.waitForFunction(() => {
+    const w = window as unknown as { __dewline?: { live?: { mesh: string; version: number }; controller?: { section: { get(): { version: number } } } } };
+    return w.__dewline?.live?.mesh === 'default' && w.__dewline.live.version === w.__dewline.controller!.section.get().version;
+  }, null, { timeout: 600_000, polling: 100 });
+}
+
+async function measure(page: Page, name: string): Promise<Figures> {
+  await waitSettled(page);
+  await page.evaluate(INSTALL);
+  const parts = await page.evaluate(() => (window as unknown as { __dewline: { snapshot(): { parts: unknown[] } } }).__dewline.snapshot().parts.length);
+  await page.waitForTimeout(1000); // idle frames
+  const fb = await page.evaluate(() => {
+    const d = (window as unknown as { __dewline: { partBox(id: string): { minX: number; minY: number; maxX: number; maxY: number }; toClient(x: number, y: number): { x: number; y: number } } }).__dewline;
+    const b = d.partBox('footing');
+    return d.toClient(b.minX + 0.15, (b.minY + b.maxY) / 2);
+  });
+  await page.mouse.move(fb.x, fb.y);
+  const cdp = PROFILE ? await page.context().newCDPSession(page) : null;
+  if (cdp) {
+    await cdp.send('Profiler.enable');
+    await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+    await cdp.send('Profiler.start');
+  }
+  const t0 = await page.evaluate(() => performance.now());
+  await page.mouse.down();
+  // A slow drag, right then back left, one move every 16 ms or so, 1 px per move.
+  const steps = Math.round(DRAG_MS / 16);
+  const wall0 = Date.now();
+  for (let i = 1; i <= steps; i++) {
+    const dx = i <= steps / 2 ? i : steps - i;
+    await page.mouse.move(fb.x + dx, fb.y);
+    const due = wall0 + i * 16 - Date.now();
+    if (due > 0) await page.waitForTimeout(due);
+  }
+  const t1 = await page.evaluate(() => performance.now());
+  if (cdp) printProfile((await cdp.send('Profiler.stop')).profile as unknown as CpuProfile);
+  await page.mouse.move(fb.x + 12, fb.y);
+  await page.mouse.up();
+  await waitSettled(page);
+  await page.waitForTimeout(200);
+  const b = await page.evaluate(() => (window as unknown as { __bench: { frames: number[]; tasks: { at: number; ms: number }[]; results: { at: number; mesh: string; version: number; ms: number; cells: number }[] } }).__bench);
+  const idle = intervals(b.frames.filter((t) => t < t0));
+  const drag = intervals(b.frames.filter((t) => t >= t0 && t <= t1));
+  const tasks = b.tasks.filter((x) => x.at + x.ms >= t0 && x.at <= t1);
+  const previews = b.results.filter((r) => r.mesh === 'preview' && r.at >= t0 && r.at <= t1);
+  const last = [...b.results].reverse().find((r) => r.mesh === 'default');
+  return {
+    name,
+    parts,
+    idleFrameP50: quantile(idle, 0.5),
+    dragFrameP50: quantile(drag, 0.5),
+    dragFrameP95: quantile(drag, 0.95),
+    dragFrameMax: Math.max(...drag),
+    framesOver50: drag.filter((d) => d > 50).length,
+    dragFrames: drag.length,
+    longTasks: tasks.length,
+    longestTaskMs: tasks.length ? Math.max(...tasks.map((x) => x.ms)) : 0,
+    refreshesPerSecond: previews.length / ((t1 - t0) / 1000),
+    previewResults: previews.length,
+    previewSolveMsMedian: quantile(previews.map((r) => r.ms), 0.5),
+    previewCells: previews.length ? previews[previews.length - 1].cells : NaN,
+    defaultSolveMs: last?.ms ?? NaN,
+    defaultCells: last?.cells ?? NaN,
+    dragMs: t1 - t0,
+  };
+}
+
+interface CpuProfile { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }[]; samples: number[]; timeDeltas: number[] }
+
+function printProfile(p: CpuProfile) {
+  const self = new Map<number, number>();
+  p.samples.forEach((id, i) => self.set(id, (self.get(id) ?? 0) + (p.timeDeltas[i] ?? 0) / 1000));
+  const byName = new Map<string, number>();
+  for (const n of p.nodes) {
+    const ms = self.get(n.id) ?? 0;
+    const f = n.callFrame;
+    const key = `${f.functionName || '(anonymous)'} ${f.url.split('/').pop()}:${f.lineNumber}`;
+    byName.set(key, (byName.get(key) ?? 0) + ms);
+  }
+  console.log('main thread, self time during the drag (ms):');
+  for (const [k, ms] of [...byName].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${ms.toFixed(1).padStart(8)}  ${k}`);
+}
+
+const f1 = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : 'n/a');
+
+function report(all: Figures[]) {
+  console.log(`\nbench:ui, Chromium ${CHROMIUM_VERSION}, ${os.cpus().length} CPU(s) (${os.cpus()[0]?.model ?? '?'}), viewport 1280x800, drag ${DRAG_MS} ms at one move per 16 ms`);
+  console.log(`load average (1 min) at the start ${LOAD_START.toFixed(2)}, at the end ${os.loadavg()[0].toFixed(2)}: other work on the machine stretches every figure`);
+  console.log('targets: >= 10 result refreshes per second while dragging; no main-thread task over 50 ms\n');
+  const head = ['section', 'parts', 'idle frame p50 ms', 'drag frame p50 / p95 / max ms', 'drag/idle p50', 'long tasks (longest ms)', 'refreshes/s', 'preview solve ms (cells)', 'refresh interval / solve', 'default solve ms (cells)'];
+  console.log(head.join(' | '));
+  for (const f of all) {
+    const interval = f.refreshesPerSecond > 0 ? 1000 / f.refreshesPerSecond : NaN;
+    console.log([
+      f.name,
+      f.parts,
+      f1(f.idleFrameP50),
+      `${f1(f.dragFrameP50)} / ${f1(f.dragFrameP95)} / ${f1(f.dragFrameMax)}`,
+      f1(f.dragFrameP50 / f.idleFrameP50),
+      `${f.longTasks} (${f1(f.longestTaskMs)})`,
+      `${f.refreshesPerSecond.toFixed(2)} ${f.refreshesPerSecond >= TARGET_RPS ? 'meets' : 'below'} target`,
+      `${f1(f.previewSolveMsMedian)} (${f.previewCells})`,
+      f1(interval / f.previewSolveMsMedian),
+      `${f1(f.defaultSolveMs)} (${f.defaultCells})`,
+    ].join(' | '));
+  }
+  console.log('');
+  for (const f of all)
+    console.log(`${f.name}: ${f.longestTaskMs <= TARGET_TASK_MS ? 'no task over 50 ms' : `longest task ${f1(f.longestTaskMs)} ms (target 50 ms)`}; ${f.refreshesPerSecond >= TARGET_RPS ? 'refresh target met' : `refreshes ${f.refreshesPerSecond.toFixed(2)}/s, target ${TARGET_RPS}/s`}`);
+}
+
+let CHROMIUM_VERSION = '?';
+const LOAD_START = os.loadavg()[0];
+
+async function main() {
+  const exe = findChromium();
+  if (!exe) throw new Error('no Chromium found (set CHROMIUM_PATH)');
+  const server = await startServer();
+  const browser = await chromium.launch({ executablePath: exe, args: ['--no-sandbox', '--headless', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'] });
+  CHROMIUM_VERSION = browser.version();
+  const all: Figures[] = [];
+  try {
+    const cases: { name: string; url: string; file?: string }[] = [
+      ...TEMPLATES.map((t) => ({ name: t.name, url: `/section?template=${t.name}` })),
+      { name: 'stress-200-parts', url: '/section?open=1', file: JSON.stringify(stressSection(200)) },
+    ];
+    for (const c of cases) {
+      if (ONLY && c.name !== ONLY) continue;
+      const ctx = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+      if (c.file) await ctx.addInitScript((text) => sessionStorage.setItem('dewline:open', text), c.file);
+      const page = await ctx.newPage();
+      await page.goto(server.url + c.url);
+      const f = await measure(page, c.name);
+      all.push(f);
+      console.error(`${c.name}: done (${f.previewResults} preview results in ${f1(f.dragMs)} ms)`);
+      await ctx.close();
+    }
+  } finally {
+    await browser.close();
+    server.stop();
+  }
+  report(all);
+  if (JSON_OUT) fs.writeFileSync(JSON_OUT, JSON.stringify({ chromium: CHROMIUM_VERSION, cpus: os.cpus().length, dragMs: DRAG_MS, figures: all }, null, 2));
+}
+
+if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(new URL(import.meta.url).pathname)) {
+  main().catch((e) => {
+    console.error(e);
+    process.exit(1);
+  });
+}
