@@ -156,7 +156,7 @@ export function buildPsi(inp: PsiInput): { psi: PsiResult | null; psiGround: Psi
     }
     const psiG = inp.l2d - 0.5 * gr.characteristicDimension * iso.u - (uWall !== null ? gr.wallHeight * uWall : 0);
     psiGround = { l2d: inp.l2d, psiG, characteristicDimension: gr.characteristicDimension, uFloor: iso.u, dt: iso.dt, rf, wallThickness: gr.wallThickness, groundLambda: gr.groundLambda, formula: iso.formula, floorCut: floor.cut, wallHeight: gr.wallHeight, uWall, wallCut };
-    assumptions.push({ topic: 'psi_g', text: `psi_g = L2D - 0.5 B' U_floor - h_w U_wall with B' = ${gr.characteristicDimension} m, U_floor = ${iso.u.toFixed(4)} W/(m2 K) from ISO 13370 (d_t = ${iso.dt.toFixed(3)} m, Rf = ${rf.toFixed(3)} m2K/W from the floor cut without ground layers, Rsi ${RSI_DOWNWARD}, Rse ${RSE}), h_w = ${gr.wallHeight} m.`, source: 'ISO 10211 and ISO 13370 (slab on ground, clause 9.1; recalled from memory)' });
+    assumptions.push({ topic: 'psi_g', text: `psi_g = L2D - 0.5 B' U_floor - h_w U_wall with B' = ${gr.characteristicDimension} m, U_floor = ${iso.u.toFixed(4)} W/(m2 K) from ISO 13370 (d_t = ${iso.dt.toFixed(3)} m, Rf = ${rf.toFixed(3)} m2K/W from the floor cut without ground layers, Rsi ${RSI_DOWNWARD}, Rse ${RSE}), h_w = ${+gr.wallHeight.toFixed(4)} m.`, source: 'ISO 10211 and ISO 13370 (slab on ground, clause 9.1; recalled from memory)' });
   }
   return { psi, psiGround, warnings, assumptions };
 }

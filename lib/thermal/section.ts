@@ -229,7 +229,11 @@ export function* solveSectionSteps(snapshot: SectionSnapshot, options: SolveOpti
   const indoor = indoorCandidates.length ? indoorCandidates.reduce((a, c) => (tDesign[c] > tDesign[a] ? c : a)) : null;
   const twoZone = touch.length === 2 && indoor !== null;
   const exterior = twoZone ? touch.find((z) => z !== indoor)! : null;
-  const l2d = indoor !== null ? F[indoor][indoor] : null;
+  // Indoor zones at the same design temperature act as one interior environment (ISO 10211 treats a
+  // junction between two rooms at one temperature as one boundary): L2D is the flow out of all of them
+  // together at 1 K, so a floor deck between a basement and the room above adds nothing to it.
+  const interior = indoor !== null ? indoorCandidates.filter((z) => Math.abs(tDesign[z] - tDesign[indoor]) < 1e-9) : [];
+  const l2d = indoor !== null ? interior.reduce((sum, i) => sum + interior.reduce((s, k) => s + F[i][k], 0), 0) : null;
 
   const segs = buildSegments({
     sys, resolved, materials, zones, touch, indoor, exterior, twoZone,

@@ -13,7 +13,9 @@ export function basementExterior() {
     description:
       'Example: 75 mm XPS on the outside of a 200 mm poured wall from the footing to the sill, drainage board below grade, parge coat over the foam above grade, 100 mm slab on 75 mm XPS. Exterior foam also protects the waterproofing (common practice). Invented scenario; conditions are examples, not code values.',
     parts: [
-      part({ id: 'ground', kind: 'soil', name: 'Ground', material: 'soil-sand-gravel', at: [-GROUND.beside, -GROUND.below], width: GROUND.beside + inner, depth: GROUND.below }),
+      // Soil under the floor (to the bottom of the stone bed) and beside the wall; the basement itself is air.
+      part({ id: 'ground', kind: 'soil', name: 'Ground below the floor', material: 'soil-sand-gravel', at: [-GROUND.beside, -GROUND.below], width: GROUND.beside + inner, depth: GROUND.below - 2.55 }),
+      part({ id: 'ground-out', kind: 'soil', name: 'Ground outside', material: 'soil-sand-gravel', at: [-GROUND.beside, -2.55], width: GROUND.beside, depth: 2.55 }),
       part({ id: 'footing', kind: 'footing', name: 'Footing', at: [-0.2, -2.6], width: 0.6, depth: 0.25 }),
       part({ id: 'wall', kind: 'foundation-wall', name: 'Foundation wall', join: { to: 'footing', anchor: 'top-center', self: 'bottom-center' }, thickness: 0.2, height: 2.65 }),
       part({ id: 'xps', kind: 'board', name: 'Exterior XPS', join: { to: 'wall', anchor: 'top-left', self: 'top-right' }, orientation: 'vertical', placement: 'outside', thickness: 0.075, length: 2.65 }),

@@ -13,7 +13,9 @@ export function basementInteriorFramed() {
     description:
       'Example: 200 mm poured wall 2.6 m tall, 50 mm XPS against the concrete, 2x4 framed wall with mineral wool, 100 mm slab on 50 mm XPS; rim joist with 50 mm closed-cell spray foam; 2x6 wall above. Invented scenario; conditions are examples, not code values.',
     parts: [
-      part({ id: 'ground', kind: 'soil', name: 'Ground', material: 'soil-sand-gravel', at: [-GROUND.beside, -GROUND.below], width: GROUND.beside + inner, depth: GROUND.below }),
+      // Soil under the floor (to the bottom of the stone bed) and beside the wall; the basement itself is air.
+      part({ id: 'ground', kind: 'soil', name: 'Ground below the floor', material: 'soil-sand-gravel', at: [-GROUND.beside, -GROUND.below], width: GROUND.beside + inner, depth: GROUND.below - 2.5 }),
+      part({ id: 'ground-out', kind: 'soil', name: 'Ground outside', material: 'soil-sand-gravel', at: [-GROUND.beside, -2.5], width: GROUND.beside, depth: 2.5 }),
       part({ id: 'footing', kind: 'footing', name: 'Footing', at: [-0.2, -2.55], width: 0.6, depth: 0.25, keyway: true }),
       part({ id: 'wall', kind: 'foundation-wall', name: 'Foundation wall', join: { to: 'footing', anchor: 'top-center', self: 'bottom-center' }, thickness: 0.2, height: 2.6 }),
       part({ id: 'bed', kind: 'gravel', name: 'Stone bed', at: [0.2, -2.5], thickness: 0.15, width: inner - 0.2 }),

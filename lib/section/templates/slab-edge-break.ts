@@ -41,6 +41,7 @@ export function slabEdgeBreak() {
         groundLambda: 1.5,
       },
     },
-    cuts: [{ id: 'edge-cut', name: 'Through the slab edge', from: [-0.3, 0.15], to: [1.0, 0.15] }],
+    // From the room down through the slab, sub-slab foam and stone bed into the ground, close to the edge.
+    cuts: [{ id: 'edge-cut', name: 'Through the floor near the slab edge', from: [0.35, 0.4], to: [0.35, -0.6] }],
   });
 }
