@@ -197,7 +197,14 @@ test('a named version restores a part someone else deleted, as a new change', as
   });
   await expect.poll(async () => (await snap(a)).parts.some((p) => p.id === 'edge'), { timeout: 5_000 }).toBe(false);
 
-  await a.locator('[data-testid="version"][data-name="Before the site meeting"] button').click();
+  // the version can be saved as a section file holding the deleted part
+  const downloading = a.waitForEvent('download');
+  await a.locator('[data-testid="version"][data-name="Before the site meeting"] button', { hasText: 'File' }).click();
+  const file = await (await downloading).path();
+  const saved = JSON.parse(fs.readFileSync(file, 'utf8')) as Snap;
+  expect(saved.parts.some((p) => p.id === 'edge')).toBe(true);
+
+  await a.locator('[data-testid="version"][data-name="Before the site meeting"] button', { hasText: 'Restore' }).click();
   await expect.poll(async () => (await snap(a)).parts.some((p) => p.id === 'edge'), { timeout: 10_000 }).toBe(true);
   await expect.poll(async () => (await snap(b)).parts.some((p) => p.id === 'edge'), { timeout: 5_000 }).toBe(true);
   expect(await thickness(b, 'edge')).toBe(0.025);
