@@ -126,6 +126,14 @@ test('the view link follows edits live, shows no editing controls, and the serve
   expect(await a.evaluate(() => (window as any).__dewline.controller.updatePart('edge', { thickness: 0.04 }))).toBeNull();
   await expect.poll(() => thickness(v, 'edge'), { timeout: 5_000 }).toBe(0.04);
 
+  // the builder on the view link is still seen: name and pointer reach the editor
+  await setName(v, 'Builder on site');
+  await expect(a.getByTestId('person').filter({ hasText: 'Builder on site' })).toBeVisible({ timeout: 5_000 });
+  const vb = await v.getByTestId('board-canvas').boundingBox();
+  await v.mouse.move(vb!.x + vb!.width / 3, vb!.y + vb!.height / 3);
+  await v.mouse.move(vb!.x + vb!.width / 3 + 15, vb!.y + vb!.height / 3 + 5);
+  await expect(a.locator('[data-testid="peer-pointer"][data-name="Builder on site"]')).toBeVisible({ timeout: 5_000 });
+
   // the board refuses the viewer's edit ...
   const refusal = await v.evaluate(() => (window as any).__dewline.controller.updatePart('edge', { thickness: 0.09 }));
   expect(refusal).toContain('view-only');
