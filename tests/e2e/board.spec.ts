@@ -354,3 +354,82 @@ test('a newcomer rebuilds the slab-edge junction from a blank board, as docs/boa
   await page.screenshot({ path: out });
   await info.attach('board', { path: out, contentType: 'image/png' });
 });
+
+test('handles edit the part’s own parameters; material, duplicate, stacking, zoom and palette drag', async ({ page }, info) => {
+  await openTemplate(page);
+  const edge = await centreOf(page, 'edge');
+  await page.mouse.click(edge.x, edge.y);
+  await expect.poll(() => dew(page, (d) => d.selection().parts)).toEqual(['edge']);
+  const k = await dew(page, (d) => d.view().k);
+  type H = { type: string; handle?: { id: string }; at: [number, number] };
+  const handleAt = async (id: string) => {
+    const hs = await page.evaluate(() => (window as unknown as { __dewline: { controller: { handles(): H[] } } }).__dewline.controller.handles());
+    const h = hs.find((x) => x.type === 'param' && x.handle!.id === id)!;
+    return client(page, ...h.at);
+  };
+
+  // Drag the break's thickness handle 12 px outwards (Alt: no snapping): the thickness grows by 12 px, the board is not scaled.
+  const t0 = part(await snapshot(page), 'edge')!.thickness!;
+  const len0 = (part(await snapshot(page), 'edge') as unknown as { length: number }).length;
+  await page.keyboard.down('Alt');
+  await drag(page, await handleAt('thickness-right'), 12, 0, 6);
+  await page.keyboard.up('Alt');
+  const t1 = part(await snapshot(page), 'edge')!.thickness!;
+  expect(t1 - t0).toBeCloseTo(12 / k, 6);
+  expect((part(await snapshot(page), 'edge') as unknown as { length: number }).length).toBe(len0);
+  await shot(page, info, 'handle-dragged');
+  // Past zero the handle is refused: the thickness stays at its last valid value, above zero.
+  await page.keyboard.down('Alt');
+  await drag(page, await handleAt('thickness-right'), -40, 0, 8);
+  await page.keyboard.up('Alt');
+  const t2 = part(await snapshot(page), 'edge')!.thickness!;
+  expect(t2).toBeGreaterThan(0);
+  expect((await page.evaluate(() => (window as unknown as { __dewline: { snapshot(): { problems?: unknown } } }).__dewline.snapshot())).problems).toBeUndefined();
+
+  // Material from the searchable list.
+  await page.getByTestId('material-button').click();
+  await page.getByTestId('material-search').fill('mineral wool');
+  const first = page.getByTestId('material-picker').locator('[data-testid^="material-"]:not([data-testid="material-search"]):not([data-testid="material-picker"])').first();
+  const mid = (await first.getAttribute('data-testid'))!.slice('material-'.length);
+  await first.click();
+  await expect.poll(async () => (part(await snapshot(page), 'edge') as unknown as { material: string }).material).toBe(mid);
+
+  // Duplicate (Ctrl+D) selects the copy; raise it down the stack with [ and up with ].
+  const n0 = (await snapshot(page)).parts.length;
+  await page.keyboard.press('Control+d');
+  const s1 = await snapshot(page);
+  expect(s1.parts.length).toBe(n0 + 1);
+  const copy = (await dew(page, (d) => d.selection().parts))[0];
+  expect(copy).not.toBe('edge');
+  expect(s1.parts.at(-1)!.id).toBe(copy); // a copy goes on top of the stack
+  await page.keyboard.press('[');
+  const s2 = await snapshot(page);
+  expect(s2.parts.findIndex((p) => p.id === copy)).toBe(s1.parts.length - 2);
+  await page.keyboard.press('Shift+[');
+  expect((await snapshot(page)).parts[0].id).toBe(copy);
+  await page.keyboard.press('Delete');
+  expect((await snapshot(page)).parts.length).toBe(n0);
+  await page.keyboard.press('Control+z');
+  await page.keyboard.press('Control+z');
+  await page.keyboard.press('Control+Shift+z');
+  expect((await snapshot(page)).parts.length).toBe(n0 + 1);
+
+  // Wheel zoom keeps the point under the pointer in place.
+  const cb = (await page.getByTestId('board-canvas').boundingBox())!;
+  const px = cb.x + 300, py = cb.y + 250;
+  const v0 = await dew(page, (d) => d.view());
+  await page.mouse.move(px, py);
+  await page.mouse.wheel(0, -240);
+  await expect.poll(() => dew(page, (d) => d.view().k)).toBeGreaterThan(v0.k * 1.2);
+  const v1 = await dew(page, (d) => d.view());
+  const sx = px - cb.x, sy = py - cb.y;
+  expect((sx - v1.ox) / v1.k).toBeCloseTo((sx - v0.ox) / v0.k, 6);
+  expect((sy - v1.oy) / v1.k).toBeCloseTo((sy - v0.oy) / v0.k, 6);
+
+  // A part dragged from the palette onto the board is placed where it is dropped.
+  const before = (await snapshot(page)).parts.length;
+  await page.getByTestId('palette-membrane').dragTo(page.getByTestId('board-canvas'), { targetPosition: { x: 200, y: 120 } });
+  await expect.poll(async () => (await snapshot(page)).parts.length).toBe(before + 1);
+  expect((await snapshot(page)).parts.at(-1)!.kind).toBe('membrane');
+  await shot(page, info, 'palette-dropped');
+});
