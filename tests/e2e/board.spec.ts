@@ -433,3 +433,78 @@ test('handles edit the part’s own parameters; material, duplicate, stacking, z
   expect((await snapshot(page)).parts.at(-1)!.kind).toBe('membrane');
   await shot(page, info, 'palette-dropped');
 });
+
+test('a free polygon: a self-crossing close is refused; vertices move, are added from an edge and removed', async ({ page }, info) => {
+  await openTemplate(page);
+  await page.keyboard.press('p');
+  await page.keyboard.down('Alt');
+  // A bow tie: Enter is refused with the reason, and nothing is added.
+  for (const [x, y] of [[1.0, 0.6], [1.4, 1.0], [1.4, 0.6], [1.0, 1.0]] as [number, number][]) {
+    const p = await client(page, x, y);
+    await page.mouse.click(p.x, p.y);
+  }
+  const n0 = (await snapshot(page)).parts.length;
+  await page.keyboard.press('Enter');
+  await expect(page.getByTestId('status')).toContainText('The polygon cannot close');
+  await expect(page.getByTestId('status')).toContainText('cross');
+  expect((await snapshot(page)).parts.length).toBe(n0);
+  // Backspace takes back all but the first vertex; three others make a simple quadrilateral; Enter closes it.
+  for (let i = 0; i < 3; i++) await page.keyboard.press('Backspace');
+  for (const [x, y] of [[1.4, 0.6], [1.4, 1.0], [1.0, 1.0]] as [number, number][]) {
+    const p = await client(page, x, y);
+    await page.mouse.click(p.x, p.y);
+  }
+  await page.keyboard.press('Enter');
+  await page.keyboard.up('Alt');
+  const poly = (await snapshot(page)).parts.find((p) => p.kind === 'polygon')!;
+  expect(poly.points!.length).toBe(5);
+  const k = await dew(page, (d) => d.view().k);
+  type H = { type: string; index?: number; after?: number; at: [number, number] };
+  const handles = () => page.evaluate(() => (window as unknown as { __dewline: { controller: { handles(): H[] } } }).__dewline.controller.handles());
+  const ring = async () => ((await snapshot(page)).parts.find((p) => p.id === poly.id)!.points!).slice(0, -1);
+
+  // Move vertex 2 (the corner at 1.4, 1.0) up by 20 px.
+  const v2 = (await handles()).find((h) => h.type === 'vertex' && h.index === 2)!;
+  const before = await ring();
+  await page.keyboard.down('Alt');
+  await drag(page, await client(page, ...v2.at), 0, -20, 5);
+  const moved = await ring();
+  expect(moved[2][1] - before[2][1]).toBeCloseTo(20 / k, 6);
+  expect(moved[2][0]).toBeCloseTo(before[2][0], 9);
+  // Drag the midpoint of edge 0 down by 15 px: a new vertex 1.
+  const m0 = (await handles()).find((h) => h.type === 'midpoint' && h.after === 0)!;
+  await drag(page, await client(page, ...m0.at), 0, 15, 5);
+  await page.keyboard.up('Alt');
+  const added = await ring();
+  expect(added.length).toBe(5);
+  expect(added[1][1]).toBeLessThan(before[0][1]);
+  await shot(page, info, 'polygon-vertex-added');
+  // Double-click that vertex: it is removed again.
+  const nv = (await handles()).find((h) => h.type === 'vertex' && h.index === 1)!;
+  const p = await client(page, ...nv.at);
+  await page.mouse.dblclick(p.x, p.y);
+  await expect.poll(async () => (await ring()).length).toBe(4);
+});
+
+test.describe('tablet pinch', () => {
+  test.use({ hasTouch: true, viewport: { width: 1024, height: 768 } });
+  test('two fingers pinch to zoom about their midpoint', async ({ page }) => {
+    await openTemplate(page);
+    const cb = (await page.getByTestId('board-canvas').boundingBox())!;
+    const cx = cb.x + cb.width / 2, cy = cb.y + cb.height / 2;
+    const v0 = await dew(page, (d) => d.view());
+    const cdp = await page.context().newCDPSession(page);
+    const at = (d: number) => [{ x: cx - d, y: cy, id: 1 }, { x: cx + d, y: cy, id: 2 }];
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchStart', touchPoints: at(40) });
+    for (let d = 45; d <= 80; d += 5) {
+      await cdp.send('Input.dispatchTouchEvent', { type: 'touchMove', touchPoints: at(d) });
+      await page.waitForTimeout(30);
+    }
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
+    const v1 = await dew(page, (d) => d.view());
+    expect(v1.k / v0.k).toBeCloseTo(2, 1); // the fingers spread from 80 px to 160 px apart
+    const sx = cx - cb.x, sy = cy - cb.y;
+    expect(Math.abs((sx - v1.ox) / v1.k - (sx - v0.ox) / v0.k)).toBeLessThan(2 / v1.k);
+    expect(Math.abs((sy - v1.oy) / v1.k - (sy - v0.oy) / v0.k)).toBeLessThan(2 / v1.k);
+  });
+});
