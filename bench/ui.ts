@@ -127,14 +127,20 @@ async function waitSettled(page: Page) {
   }, null, { timeout: 600_000, polling: 100 });
 }
 
-async function measure(page: Page, name: string): Promise<Figures> {
-  await waitSettled(page);
+/** `baseline`: a blank board (no parts, no solves): the same drag over empty space, so the figures show what the machine's load alone does. */
+async function measure(page: Page, name: string, baseline = false): Promise<Figures> {
+  if (baseline) await page.waitForFunction(() => Boolean((window as unknown as { __dewline?: { controller?: unknown } }).__dewline?.controller), null, { timeout: 120_000 });
+  else await waitSettled(page);
   await page.evaluate(INSTALL);
   const parts = await page.evaluate(() => (window as unknown as { __dewline: { snapshot(): { parts: unknown[] } } }).__dewline.snapshot().parts.length);
   await page.waitForTimeout(1000); // idle frames
   const fb = await page.evaluate(() => {
-    const d = (window as unknown as { __dewline: { partBox(id: string): { minX: number; minY: number; maxX: number; maxY: number }; toClient(x: number, y: number): { x: number; y: number } } }).__dewline;
+    const d = (window as unknown as { __dewline: { partBox(id: string): { minX: number; minY: number; maxX: number; maxY: number } | null; toClient(x: number, y: number): { x: number; y: number } } }).__dewline;
     const b = d.partBox('footing');
+    if (!b) {
+      const r = document.querySelector('[data-testid="board-canvas"]')!.getBoundingClientRect();
+      return { x: r.left + r.width / 2, y: r.top + r.height / 2 };
+    }
     return d.toClient(b.minX + 0.15, (b.minY + b.maxY) / 2);
   });
   await page.mouse.move(fb.x, fb.y);
@@ -159,7 +165,7 @@ async function measure(page: Page, name: string): Promise<Figures> {
   if (cdp) printProfile((await cdp.send('Profiler.stop')).profile as unknown as CpuProfile);
   await page.mouse.move(fb.x + 12, fb.y);
   await page.mouse.up();
-  await waitSettled(page);
+  if (!baseline) await waitSettled(page);
   await page.waitForTimeout(200);
   const b = await page.evaluate(() => (window as unknown as { __bench: { frames: number[]; tasks: { at: number; ms: number }[]; results: { at: number; mesh: string; version: number; ms: number; cells: number }[] } }).__bench);
   const idle = intervals(b.frames.filter((t) => t < t0));
@@ -228,7 +234,9 @@ function report(all: Figures[]) {
     ].join(' | '));
   }
   console.log('');
-  for (const f of all)
+  const base = all.find((f) => f.name.startsWith('baseline'));
+  if (base) console.log(`baseline (blank board, the same drag over empty space, no solves): ${base.longTasks} long tasks, longest ${f1(base.longestTaskMs)} ms; this is the machine's load alone\n`);
+  for (const f of all.filter((x) => x !== base))
     console.log(`${f.name}: ${f.longestTaskMs <= TARGET_TASK_MS ? 'no task over 50 ms' : `longest task ${f1(f.longestTaskMs)} ms (target 50 ms)`}; ${f.refreshesPerSecond >= TARGET_RPS ? 'refresh target met' : `refreshes ${f.refreshesPerSecond.toFixed(2)}/s, target ${TARGET_RPS}/s`}`);
 }
 
@@ -243,7 +251,8 @@ async function main() {
   CHROMIUM_VERSION = browser.version();
   const all: Figures[] = [];
   try {
-    const cases: { name: string; url: string; file?: string }[] = [
+    const cases: { name: string; url: string; file?: string; baseline?: boolean }[] = [
+      { name: 'baseline-blank-board', url: '/section?blank=1', baseline: true },
       ...TEMPLATES.map((t) => ({ name: t.name, url: `/section?template=${t.name}` })),
       { name: 'stress-200-parts', url: '/section?open=1', file: JSON.stringify(stressSection(200)) },
     ];
@@ -253,7 +262,7 @@ async function main() {
       if (c.file) await ctx.addInitScript((text) => sessionStorage.setItem('dewline:open', text), c.file);
       const page = await ctx.newPage();
       await page.goto(server.url + c.url);
-      const f = await measure(page, c.name);
+      const f = await measure(page, c.name, c.baseline);
       all.push(f);
       console.error(`${c.name}: done (${f.previewResults} preview results in ${f1(f.dragMs)} ms)`);
       await ctx.close();

@@ -373,6 +373,10 @@ export function BoardCanvas({ overlay, className }: { overlay?: ReactNode; class
       onPointerUp={(e) => c.pointerUp(pointerInput(e, ref.current!))}
       onPointerCancel={(e) => c.pointerCancel(pointerInput(e, ref.current!))}
       onPointerLeave={() => c.pointerLeave()}
+      onDoubleClick={(e) => {
+        const r = ref.current!.getBoundingClientRect();
+        c.doubleClick(e.clientX - r.left, e.clientY - r.top);
+      }}
       onDragOver={(e) => {
         if (e.dataTransfer.types.includes('application/x-dewline-kind')) e.preventDefault();
       }}

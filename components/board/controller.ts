@@ -532,6 +532,16 @@ export class BoardController {
     return err;
   }
 
+  /**
+   * A double click (the browser's dblclick event: pointer events carry no click count in Chromium, so
+   * PointerInput.detail is 0 there). On a vertex of the selected free polygon it removes that vertex.
+   */
+  doubleClick(sx: number, sy: number, pointerType = 'mouse'): string | null {
+    if (this.ui.get().readOnly || this.ui.get().tool.type !== 'select') return null;
+    const h = this.handleAt(sx, sy, pointerType);
+    return h?.type === 'vertex' ? this.removeVertex(h.partId, h.index) : null;
+  }
+
   /** The pointer left the drawing. */
   pointerLeave() {
     if (this.gesture.type === 'none') this.pointer.set(null);

@@ -3,7 +3,7 @@
  * The readout's tools: the probe (what is under the pointer), the cut lines with their temperature
  * charts, and the psi settings (dimension convention and flanking lengths). Every number through lib/units.
  */
-import { useMemo } from 'react';
+import { useMemo, useRef } from 'react';
 import { useBoard } from '@/components/board/Canvas';
 import { ValueField } from '@/components/board/SidePanel';
 import { parseCoordinate } from '@/components/board/fields';
@@ -15,6 +15,7 @@ import type { AnalysisSettings, CutRecord } from '@/lib/section/schema';
 import type { UnitSystem } from '@/lib/units';
 import { formatLength, formatQuantity } from '@/lib/units';
 import { chartPaths, cutProfile, profileRange } from './cutline';
+import type { ProbeReading } from './probe';
 import { probeAt } from './probe';
 import type { LiveSession } from './session';
 
@@ -26,11 +27,14 @@ export function Probe({ live, sys }: { live: LiveSession; sys: UnitSystem }) {
   const c = useBoard();
   const spot = useStore(c.pointer);
   const st = useStore(live.state);
-  const section = useStore(c.section);
+  // The settled section: during a drag the probe holds still, so the page does no layout on every move.
+  const section = useStore(c.settled);
+  const held = useRef<ProbeReading | null>(null);
   const reading = useMemo(() => {
+    if (c.isDragging()) return held.current;
     if (!spot) return null;
     const tol = (spot.pointerType === 'touch' ? 14 : 6) / c.view.get().k;
-    return probeAt(section.resolved.solids, st.field, st.results?.surfaces ?? [], spot.w[0], spot.w[1], tol);
+    return (held.current = probeAt(section.resolved.solids, st.field, st.results?.surfaces ?? [], spot.w[0], spot.w[1], tol));
   }, [spot, st.field, st.results, section, c]);
   return (
     <div style={box} data-testid="live-probe" aria-live="polite">
@@ -66,7 +70,7 @@ const W = 250, H = 110;
 function CutChart({ cut, live, sys }: { cut: CutRecord; live: LiveSession; sys: UnitSystem }) {
   const c = useBoard();
   const st = useStore(live.state);
-  const section = useStore(c.section);
+  const section = useStore(c.settled);
   const profile = useMemo(() => (st.field ? cutProfile(st.field, section.resolved.solids, cut.from, cut.to) : null), [st.field, section, cut]);
   if (!profile) return <p style={{ color: '#555' }}>Waiting for results…</p>;
   const range = profileRange(profile);

@@ -6,7 +6,8 @@
 import { useEffect, useState } from 'react';
 import type { BoardController } from '@/components/board/controller';
 import { fetchVersion, listVersions, saveVersion, type VersionInfo } from '@/lib/collab/api';
-import { restoreVersion } from '@/lib/collab/versions';
+import { restoreVersion, sectionOfVersion } from '@/lib/collab/versions';
+import { fileNameFor } from '@/components/board/Board';
 import css from './room.module.css';
 
 const when = (ms: number) => new Date(ms).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
@@ -62,6 +63,25 @@ export function HistoryPanel({ editKey, controller: c, onClose }: { editKey: str
     }
   };
 
+  /** The version as a section file, to look at or keep (the board is not touched). */
+  const download = async (v: VersionInfo) => {
+    setError(null);
+    try {
+      const s = sectionOfVersion(await fetchVersion(editKey, v.id));
+      const blob = new Blob([JSON.stringify(s, null, 2) + '\n'], { type: 'application/json' });
+      const url = URL.createObjectURL(blob);
+      const a = document.createElement('a');
+      a.href = url;
+      a.download = fileNameFor(`${s.name} ${v.name}`);
+      document.body.appendChild(a);
+      a.click();
+      a.remove();
+      setTimeout(() => URL.revokeObjectURL(url), 1000);
+    } catch (err) {
+      setError(`Not downloaded: ${(err as Error).message}`);
+    }
+  };
+
   return (
     <section className={css.panel} data-testid="history-panel" aria-label="Named versions">
       <div style={{ display: 'flex', justifyContent: 'space-between', alignItems: 'center' }}>
@@ -90,9 +110,14 @@ export function HistoryPanel({ editKey, controller: c, onClose }: { editKey: str
                 {v.name}
                 <small>{when(v.createdAt)}</small>
               </span>
-              <button type="button" disabled={busy} onClick={() => void restore(v)} data-testid={`restore-${v.id}`}>
-                Restore
-              </button>
+              <span style={{ display: 'flex', gap: 4 }}>
+                <button type="button" onClick={() => void download(v)} data-testid={`download-${v.id}`} title="Save this version as a section file">
+                  File
+                </button>
+                <button type="button" disabled={busy} onClick={() => void restore(v)} data-testid={`restore-${v.id}`}>
+                  Restore
+                </button>
+              </span>
             </li>
           ))}
         </ul>

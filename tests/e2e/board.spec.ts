@@ -354,3 +354,157 @@ test('a newcomer rebuilds the slab-edge junction from a blank board, as docs/boa
   await page.screenshot({ path: out });
   await info.attach('board', { path: out, contentType: 'image/png' });
 });
+
+test('handles edit the part’s own parameters; material, duplicate, stacking, zoom and palette drag', async ({ page }, info) => {
+  await openTemplate(page);
+  const edge = await centreOf(page, 'edge');
+  await page.mouse.click(edge.x, edge.y);
+  await expect.poll(() => dew(page, (d) => d.selection().parts)).toEqual(['edge']);
+  const k = await dew(page, (d) => d.view().k);
+  type H = { type: string; handle?: { id: string }; at: [number, number] };
+  const handleAt = async (id: string) => {
+    const hs = await page.evaluate(() => (window as unknown as { __dewline: { controller: { handles(): H[] } } }).__dewline.controller.handles());
+    const h = hs.find((x) => x.type === 'param' && x.handle!.id === id)!;
+    return client(page, ...h.at);
+  };
+
+  // Drag the break's thickness handle 12 px outwards (Alt: no snapping): the thickness grows by 12 px, the board is not scaled.
+  const t0 = part(await snapshot(page), 'edge')!.thickness!;
+  const len0 = (part(await snapshot(page), 'edge') as unknown as { length: number }).length;
+  await page.keyboard.down('Alt');
+  await drag(page, await handleAt('thickness-right'), 12, 0, 6);
+  await page.keyboard.up('Alt');
+  const t1 = part(await snapshot(page), 'edge')!.thickness!;
+  expect(t1 - t0).toBeCloseTo(12 / k, 6);
+  expect((part(await snapshot(page), 'edge') as unknown as { length: number }).length).toBe(len0);
+  await shot(page, info, 'handle-dragged');
+  // Past zero the handle is refused: the thickness stays at its last valid value, above zero.
+  await page.keyboard.down('Alt');
+  await drag(page, await handleAt('thickness-right'), -40, 0, 8);
+  await page.keyboard.up('Alt');
+  const t2 = part(await snapshot(page), 'edge')!.thickness!;
+  expect(t2).toBeGreaterThan(0);
+  expect((await page.evaluate(() => (window as unknown as { __dewline: { snapshot(): { problems?: unknown } } }).__dewline.snapshot())).problems).toBeUndefined();
+
+  // Material from the searchable list.
+  await page.getByTestId('material-button').click();
+  await page.getByTestId('material-search').fill('mineral wool');
+  const first = page.getByTestId('material-picker').locator('[data-testid^="material-"]:not([data-testid="material-search"]):not([data-testid="material-picker"])').first();
+  const mid = (await first.getAttribute('data-testid'))!.slice('material-'.length);
+  await first.click();
+  await expect.poll(async () => (part(await snapshot(page), 'edge') as unknown as { material: string }).material).toBe(mid);
+
+  // Duplicate (Ctrl+D) selects the copy; raise it down the stack with [ and up with ].
+  const n0 = (await snapshot(page)).parts.length;
+  await page.keyboard.press('Control+d');
+  const s1 = await snapshot(page);
+  expect(s1.parts.length).toBe(n0 + 1);
+  const copy = (await dew(page, (d) => d.selection().parts))[0];
+  expect(copy).not.toBe('edge');
+  expect(s1.parts.at(-1)!.id).toBe(copy); // a copy goes on top of the stack
+  await page.keyboard.press('[');
+  const s2 = await snapshot(page);
+  expect(s2.parts.findIndex((p) => p.id === copy)).toBe(s1.parts.length - 2);
+  await page.keyboard.press('Shift+[');
+  expect((await snapshot(page)).parts[0].id).toBe(copy);
+  await page.keyboard.press('Delete');
+  expect((await snapshot(page)).parts.length).toBe(n0);
+  await page.keyboard.press('Control+z');
+  await page.keyboard.press('Control+z');
+  await page.keyboard.press('Control+Shift+z');
+  expect((await snapshot(page)).parts.length).toBe(n0 + 1);
+
+  // Wheel zoom keeps the point under the pointer in place.
+  const cb = (await page.getByTestId('board-canvas').boundingBox())!;
+  const px = cb.x + 300, py = cb.y + 250;
+  const v0 = await dew(page, (d) => d.view());
+  await page.mouse.move(px, py);
+  await page.mouse.wheel(0, -240);
+  await expect.poll(() => dew(page, (d) => d.view().k)).toBeGreaterThan(v0.k * 1.2);
+  const v1 = await dew(page, (d) => d.view());
+  const sx = px - cb.x, sy = py - cb.y;
+  expect((sx - v1.ox) / v1.k).toBeCloseTo((sx - v0.ox) / v0.k, 6);
+  expect((sy - v1.oy) / v1.k).toBeCloseTo((sy - v0.oy) / v0.k, 6);
+
+  // A part dragged from the palette onto the board is placed where it is dropped.
+  const before = (await snapshot(page)).parts.length;
+  await page.getByTestId('palette-membrane').dragTo(page.getByTestId('board-canvas'), { targetPosition: { x: 200, y: 120 } });
+  await expect.poll(async () => (await snapshot(page)).parts.length).toBe(before + 1);
+  expect((await snapshot(page)).parts.at(-1)!.kind).toBe('membrane');
+  await shot(page, info, 'palette-dropped');
+});
+
+test('a free polygon: a self-crossing close is refused; vertices move, are added from an edge and removed', async ({ page }, info) => {
+  await openTemplate(page);
+  await page.keyboard.press('p');
+  await page.keyboard.down('Alt');
+  // A bow tie: Enter is refused with the reason, and nothing is added.
+  for (const [x, y] of [[1.0, 0.6], [1.4, 1.0], [1.4, 0.6], [1.0, 1.0]] as [number, number][]) {
+    const p = await client(page, x, y);
+    await page.mouse.click(p.x, p.y);
+  }
+  const n0 = (await snapshot(page)).parts.length;
+  await page.keyboard.press('Enter');
+  await expect(page.getByTestId('status')).toContainText('The polygon cannot close');
+  await expect(page.getByTestId('status')).toContainText('cross');
+  expect((await snapshot(page)).parts.length).toBe(n0);
+  // Backspace takes back all but the first vertex; three others make a simple quadrilateral; Enter closes it.
+  for (let i = 0; i < 3; i++) await page.keyboard.press('Backspace');
+  for (const [x, y] of [[1.4, 0.6], [1.4, 1.0], [1.0, 1.0]] as [number, number][]) {
+    const p = await client(page, x, y);
+    await page.mouse.click(p.x, p.y);
+  }
+  await page.keyboard.press('Enter');
+  await page.keyboard.up('Alt');
+  const poly = (await snapshot(page)).parts.find((p) => p.kind === 'polygon')!;
+  expect(poly.points!.length).toBe(5);
+  const k = await dew(page, (d) => d.view().k);
+  type H = { type: string; index?: number; after?: number; at: [number, number] };
+  const handles = () => page.evaluate(() => (window as unknown as { __dewline: { controller: { handles(): H[] } } }).__dewline.controller.handles());
+  const ring = async () => ((await snapshot(page)).parts.find((p) => p.id === poly.id)!.points!).slice(0, -1);
+
+  // Move vertex 2 (the corner at 1.4, 1.0) up by 20 px.
+  const v2 = (await handles()).find((h) => h.type === 'vertex' && h.index === 2)!;
+  const before = await ring();
+  await page.keyboard.down('Alt');
+  await drag(page, await client(page, ...v2.at), 0, -20, 5);
+  const moved = await ring();
+  expect(moved[2][1] - before[2][1]).toBeCloseTo(20 / k, 6);
+  expect(moved[2][0]).toBeCloseTo(before[2][0], 9);
+  // Drag the midpoint of edge 0 down by 15 px: a new vertex 1.
+  const m0 = (await handles()).find((h) => h.type === 'midpoint' && h.after === 0)!;
+  await drag(page, await client(page, ...m0.at), 0, 15, 5);
+  await page.keyboard.up('Alt');
+  const added = await ring();
+  expect(added.length).toBe(5);
+  expect(added[1][1]).toBeLessThan(before[0][1]);
+  await shot(page, info, 'polygon-vertex-added');
+  // Double-click that vertex: it is removed again.
+  const nv = (await handles()).find((h) => h.type === 'vertex' && h.index === 1)!;
+  const p = await client(page, ...nv.at);
+  await page.mouse.dblclick(p.x, p.y);
+  await expect.poll(async () => (await ring()).length).toBe(4);
+});
+
+test.describe('tablet pinch', () => {
+  test.use({ hasTouch: true, viewport: { width: 1024, height: 768 } });
+  test('two fingers pinch to zoom about their midpoint', async ({ page }) => {
+    await openTemplate(page);
+    const cb = (await page.getByTestId('board-canvas').boundingBox())!;
+    const cx = cb.x + cb.width / 2, cy = cb.y + cb.height / 2;
+    const v0 = await dew(page, (d) => d.view());
+    const cdp = await page.context().newCDPSession(page);
+    const at = (d: number) => [{ x: cx - d, y: cy, id: 1 }, { x: cx + d, y: cy, id: 2 }];
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchStart', touchPoints: at(40) });
+    for (let d = 45; d <= 80; d += 5) {
+      await cdp.send('Input.dispatchTouchEvent', { type: 'touchMove', touchPoints: at(d) });
+      await page.waitForTimeout(30);
+    }
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
+    const v1 = await dew(page, (d) => d.view());
+    expect(v1.k / v0.k).toBeCloseTo(2, 1); // the fingers spread from 80 px to 160 px apart
+    const sx = cx - cb.x, sy = cy - cb.y;
+    expect(Math.abs((sx - v1.ox) / v1.k - (sx - v0.ox) / v0.k)).toBeLessThan(2 / v1.k);
+    expect(Math.abs((sy - v1.oy) / v1.k - (sy - v0.oy) / v0.k)).toBeLessThan(2 / v1.k);
+  });
+});

@@ -126,6 +126,14 @@ test('the view link follows edits live, shows no editing controls, and the serve
   expect(await a.evaluate(() => (window as any).__dewline.controller.updatePart('edge', { thickness: 0.04 }))).toBeNull();
   await expect.poll(() => thickness(v, 'edge'), { timeout: 5_000 }).toBe(0.04);
 
+  // the builder on the view link is still seen: name and pointer reach the editor
+  await setName(v, 'Builder on site');
+  await expect(a.getByTestId('person').filter({ hasText: 'Builder on site' })).toBeVisible({ timeout: 5_000 });
+  const vb = await v.getByTestId('board-canvas').boundingBox();
+  await v.mouse.move(vb!.x + vb!.width / 3, vb!.y + vb!.height / 3);
+  await v.mouse.move(vb!.x + vb!.width / 3 + 15, vb!.y + vb!.height / 3 + 5);
+  await expect(a.locator('[data-testid="peer-pointer"][data-name="Builder on site"]')).toBeVisible({ timeout: 5_000 });
+
   // the board refuses the viewer's edit ...
   const refusal = await v.evaluate(() => (window as any).__dewline.controller.updatePart('edge', { thickness: 0.09 }));
   expect(refusal).toContain('view-only');
@@ -197,7 +205,14 @@ test('a named version restores a part someone else deleted, as a new change', as
   });
   await expect.poll(async () => (await snap(a)).parts.some((p) => p.id === 'edge'), { timeout: 5_000 }).toBe(false);
 
-  await a.locator('[data-testid="version"][data-name="Before the site meeting"] button').click();
+  // the version can be saved as a section file holding the deleted part
+  const downloading = a.waitForEvent('download');
+  await a.locator('[data-testid="version"][data-name="Before the site meeting"] button', { hasText: 'File' }).click();
+  const file = await (await downloading).path();
+  const saved = JSON.parse(fs.readFileSync(file, 'utf8')) as Snap;
+  expect(saved.parts.some((p) => p.id === 'edge')).toBe(true);
+
+  await a.locator('[data-testid="version"][data-name="Before the site meeting"] button', { hasText: 'Restore' }).click();
   await expect.poll(async () => (await snap(a)).parts.some((p) => p.id === 'edge'), { timeout: 10_000 }).toBe(true);
   await expect.poll(async () => (await snap(b)).parts.some((p) => p.id === 'edge'), { timeout: 5_000 }).toBe(true);
   expect(await thickness(b, 'edge')).toBe(0.025);
