@@ -362,7 +362,7 @@ export function BoardCanvas({ overlay, className }: { overlay?: ReactNode; class
       ref={ref}
       className={className}
       data-testid="board-canvas"
-      style={{ position: 'relative', overflow: 'hidden', touchAction: 'none', cursor, userSelect: 'none' }}
+      style={{ overflow: 'hidden', touchAction: 'none', cursor, userSelect: 'none' }}
       onContextMenu={(e) => e.preventDefault()}
       onPointerDown={(e) => {
         (e.currentTarget as HTMLElement).setPointerCapture(e.pointerId);

@@ -9,6 +9,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { resolveSection } from '../../lib/section/resolve';
 import { templateByName } from '../../lib/section/templates';
+import { formatLength } from '../../lib/units';
 
 test.setTimeout(240_000);
 
@@ -188,8 +189,13 @@ test('a locked part cannot be dragged; unlocked it can', async ({ page }, info) 
   // The lock is in the document and can be undone like any edit; unlocked, the same drag moves it.
   await page.getByTestId('lock').click();
   expect(part(await snapshot(page), 'footing')!.locked).toBe(false);
+  const stem0 = (await box(page, 'stem'))!, plate0 = (await box(page, 'plate'))!;
   await drag(page, c, 50, 0);
-  expect((await box(page, 'footing'))!.minX).toBeGreaterThan(b0.minX);
+  const b1 = (await box(page, 'footing'))!;
+  expect(b1.minX).toBeGreaterThan(b0.minX);
+  // Joined parts follow: the stem wall on the footing, the sill plate on the stem wall (snapping may round the move, but all move alike).
+  expect((await box(page, 'stem'))!.minX - stem0.minX).toBeCloseTo(b1.minX - b0.minX, 9);
+  expect((await box(page, 'plate'))!.minX - plate0.minX).toBeCloseTo(b1.minX - b0.minX, 9);
 });
 
 test('the help overlay lists the shortcuts and closes', async ({ page }, info) => {
@@ -507,4 +513,23 @@ test.describe('tablet pinch', () => {
     expect(Math.abs((sx - v1.ox) / v1.k - (sx - v0.ox) / v0.k)).toBeLessThan(2 / v1.k);
     expect(Math.abs((sy - v1.oy) / v1.k - (sy - v0.oy) / v0.k)).toBeLessThan(2 / v1.k);
   });
+});
+
+test('inch-pound on screen: the scale bar and fields switch, and typed inches land in SI', async ({ page }, info) => {
+  await openTemplate(page);
+  await expect(page.getByTestId('scale-bar')).toContainText('mm');
+  await page.getByTestId('units').click();
+  await expect(page.getByTestId('units')).toHaveText('in');
+  await expect(page.getByTestId('scale-bar')).not.toContainText('mm');
+  const e = await centreOf(page, 'edge');
+  await page.mouse.click(e.x, e.y);
+  const field = page.getByTestId('field-thickness');
+  await expect(field).toHaveValue(formatLength(0.025, 'ip'));
+  await field.fill('1-1/2"');
+  await field.press('Enter');
+  await expect.poll(async () => part(await snapshot(page), 'edge')!.thickness).toBeCloseTo(1.5 * 0.0254, 12); // 1 in = 25.4 mm exactly
+  await field.fill('2'); // a bare number is in inches now
+  await field.press('Enter');
+  await expect.poll(async () => part(await snapshot(page), 'edge')!.thickness).toBeCloseTo(2 * 0.0254, 12);
+  await shot(page, info, 'inch-pound');
 });

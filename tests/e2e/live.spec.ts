@@ -3,6 +3,8 @@
  * on the same snapshot, and thinning the slab-edge break raises psi_g and lowers the slab-edge surface temperature.
  */
 import { expect, test } from '@playwright/test';
+import { spawnSync } from 'node:child_process';
+import path from 'node:path';
 import { solveSectionSync } from '../../lib/thermal/section';
 import type { SectionResults } from '../../lib/thermal/types';
 import type { Page } from '@playwright/test';
@@ -18,7 +20,7 @@ test.setTimeout(300_000);
 
 type W = { __dewline: { results: SectionResults; live: { version: number; mesh: string }; controller: { section: { get(): { version: number } }; updatePart(id: string, p: Record<string, unknown>): string | null }; snapshot(): unknown } };
 
-test('readout follows the drawing and equals the solver on the same snapshot', async ({ page }) => {
+test('readout follows the drawing and equals the solver on the same snapshot and the CLI on the saved file', async ({ page }, testInfo) => {
   await page.goto('/section?template=slab-edge-break');
   await page.waitForFunction(() => (window as unknown as W).__dewline?.results?.mesh.level === 'default', null, { timeout: 240_000 });
   await expect(page.getByTestId('live-readout')).toHaveAttribute('data-stale', 'no', { timeout: 120_000 });
@@ -29,9 +31,14 @@ test('readout follows the drawing and equals the solver on the same snapshot', a
   expect(before.r.coldest!.t).toBeCloseTo(ref.coldest!.t, 9);
   await expect(page.getByTestId('live-psig')).toHaveText(`${ref.psiGround!.psiG.toFixed(3)} W/(m·K)`);
 
-  // Thin the slab-edge break from 25 mm to 5 mm through the board's named operation.
+  // Thin the slab-edge break from 25 mm to 5 mm by typing in its field.
   const v0 = await page.evaluate(() => (window as unknown as W).__dewline.controller.section.get().version);
-  expect(await page.evaluate(() => (window as unknown as W).__dewline.controller.updatePart('edge', { thickness: 0.005 }))).toBeNull();
+  const eb = (await page.evaluate(() => (window as unknown as Live).__dewline.partBox('edge')))!;
+  const ec = await toClient(page, (eb.minX + eb.maxX) / 2, (eb.minY + eb.maxY) / 2);
+  await page.mouse.click(ec.x, ec.y);
+  await page.getByTestId('field-thickness').fill('5 mm');
+  await page.getByTestId('field-thickness').press('Enter');
+  await expect.poll(async () => ((await snap(page)).parts.find((p) => p.id === 'edge') as unknown as { thickness: number }).thickness).toBeCloseTo(0.005, 12);
   await page.waitForFunction((v) => { const w = window as unknown as W; return w.__dewline.live.version > v && w.__dewline.live.mesh === 'default'; }, v0, { timeout: 240_000 });
   await expect(page.getByTestId('live-readout')).toHaveAttribute('data-stale', 'no', { timeout: 120_000 });
   await page.screenshot({ path: 'test-results/live/thinner-break.png' });
@@ -44,6 +51,18 @@ test('readout follows the drawing and equals the solver on the same snapshot', a
   // plate corner, which the closer slab warms, so the slab's own surfaces are the ones to watch.)
   const slabMin = (r: typeof after.r) => Math.min(...r.surfaces.filter((x) => x.partId === 'slab').map((x) => x.tMin));
   expect(slabMin(after.r)).toBeLessThan(slabMin(before.r) - 1);
+
+  // The command line on the saved file gives the same numbers as the readout.
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('save').click()]);
+  const saved = testInfo.outputPath('thinner-break.dewline.json');
+  await download.saveAs(saved);
+  const cli = spawnSync(process.execPath, [path.resolve('bin/dewline.mjs'), 'solve', saved, '--json'], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
+  expect(cli.status, cli.stderr).toBe(0);
+  const fromCli = JSON.parse(cli.stdout) as SectionResults;
+  expect(fromCli.psiGround!.psiG).toBeCloseTo(after.r.psiGround!.psiG, 9);
+  expect(fromCli.coldest!.t).toBeCloseTo(after.r.coldest!.t, 9);
+  expect(fromCli.l2d!).toBeCloseTo(after.r.l2d!, 9);
+  await expect(page.getByTestId('live-psig')).toHaveText(formatQuantity('psi', fromCli.psiGround!.psiG, 'si'));
 });
 
 // ---- probe, cut lines, psi settings, results during a drag -------------------------------------------
