@@ -101,7 +101,7 @@ function BoardShell({ overlay, aside }: { overlay?: ReactNode; aside?: ReactNode
       <header className={css.bar}>
         <SectionTitle />
         <div className={css.group}>
-          <button type="button" onClick={open} title="Open a section file (Ctrl+O)" data-testid="open">Open…</button>
+          {!ui.readOnly && <button type="button" onClick={open} title="Open a section file (Ctrl+O)" data-testid="open">Open…</button>}
           <button type="button" onClick={save} title="Save to a file (Ctrl+S)" data-testid="save">Save</button>
         </div>
         <div className={css.group}>

@@ -120,6 +120,8 @@ test('the view link follows edits live, shows no editing controls, and the serve
   await expect(v.getByTestId('links')).toHaveCount(0);
   await expect(v.getByTestId('history')).toHaveCount(0);
   await expect(v.getByTestId('undo')).toBeDisabled();
+  await expect(v.getByTestId('open')).toHaveCount(0); // a view link cannot replace the document
+  await expect(v.getByTestId('save')).toBeVisible(); // but can still save a copy to a file
   await expect(v.getByTestId('status')).toContainText('View only.');
   expect(await v.getByTestId('sheet-link').getAttribute('href')).toBe(`/sheet?key=${viewUrl.split('/s/')[1]}`);
 
