@@ -53,10 +53,26 @@ export interface Mesh {
 
 const MERGE = 1e-7;
 
-/** Cell sizes for an interval of length len, graded from both ends. */
-export function gradeInterval(len: number, h0: number, growth: number, hmax: number): number[] {
+/**
+ * Cell sizes for an interval of length len, graded from both ends, or from one end only when the
+ * other is the model's outer edge (an adiabatic cut plane, where nothing changes abruptly).
+ */
+export function gradeInterval(len: number, h0: number, growth: number, hmax: number, gradeLeft = true, gradeRight = true): number[] {
   const hm = Math.max(hmax, h0);
   if (len <= h0 * 1.5) return [len];
+  if (!gradeLeft && !gradeRight) {
+    const k = Math.max(1, Math.round(len / hm));
+    return new Array<number>(k).fill(len / k);
+  }
+  if (!gradeLeft || !gradeRight) {
+    const one: number[] = [];
+    let sum = 0, h = h0;
+    while (sum < len) { one.push(h); sum += h; h = Math.min(h * growth, hm); }
+    if (one.length > 1 && Math.abs(sum - one[one.length - 1] - len) < Math.abs(sum - len)) sum -= one.pop()!;
+    const f = len / sum;
+    const sized = one.map((v) => v * f);
+    return gradeLeft ? sized : sized.reverse();
+  }
   const left: number[] = [], right: number[] = [];
   let sl = 0, sr = 0, hl = h0, hr = h0;
   while (sl + sr < len) {
@@ -89,7 +105,7 @@ function lines(keys: number[], spans: { lo: number; hi: number }[], spec: MeshSp
     let hmax = spec.hmaxGround;
     for (const s of spans) if (s.lo < b - MERGE && s.hi > a + MERGE) { hmax = Math.min(hmax, spec.hmax); break; }
     let x = a;
-    const sizes = gradeInterval(b - a, spec.h0, spec.growth, hmax);
+    const sizes = gradeInterval(b - a, spec.h0, spec.growth, hmax, i > 0, i + 2 < k.length);
     for (let j = 0; j < sizes.length - 1; j++) out.push((x += sizes[j]));
     out.push(b);
   }
