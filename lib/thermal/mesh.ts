@@ -1,7 +1,9 @@
 /**
  * The mesh: a non-uniform rectilinear grid whose lines include every vertex coordinate of every
  * solid and zone, graded geometrically away from each line (first cell h0, growth factor g) up to a
- * maximum size, which is smaller where a construction (non-ground) solid spans the interval.
+ * maximum size, which is smaller where a construction (non-ground) solid spans the interval across its
+ * thickness (its shorter side); along its length, and toward the model's outer cut planes, only the
+ * grading limits the cells.
  * Each cell takes what covers its centre: the top-ranked solid, else the top-ranked zone, else void.
  * Sloped edges are therefore staircased at cell resolution (see docs/solver.md for the measured error).
  * A thin layer (a 0.25 mm membrane) is one row of cells between its two grid lines: it adds one row,
@@ -154,8 +156,10 @@ export function buildMesh(solids: readonly GeometrySolid[], zones: readonly Geom
     if (s.ground) continue;
     let a = Infinity, b = -Infinity, c = Infinity, d = -Infinity;
     for (const [x, y] of s.polygon) { a = Math.min(a, x); b = Math.max(b, x); c = Math.min(c, y); d = Math.max(d, y); }
-    spanX.push({ lo: a, hi: b });
-    spanY.push({ lo: c, hi: d });
+    // A construction caps the cell size across its thickness, not along its length: along a slab or
+    // a wall the field changes slowly away from the grid lines, where the grading already keeps cells small.
+    if (b - a <= d - c) spanX.push({ lo: a, hi: b });
+    if (d - c <= b - a) spanY.push({ lo: c, hi: d });
   }
   const xs = lines(kx, spanX, spec), ys = lines(ky, spanY, spec);
   const nx = xs.length - 1, ny = ys.length - 1;

@@ -18,7 +18,7 @@ const COLDEST_K = 0.05;
  * - coldest point at a corner where a conductive part touches the interior surface at one point
  *   (slab edge at [0.2, 0.2]; basement-outside at [0.09, 0.579]): the surface value is sampled at
  *   the centre of the first face, so it moves with the first cell's size (1.86 K and 0.33 K here);
- * - the small net flow of the ground-surface zone (1.1 % and 2.0 %) and basement-outside's outdoor
+ * - the small net flow of the ground-surface zone (1.1 % and 1.8 %) and basement-outside's outdoor
  *   flow (1.09 %), which sit next to the junction of two exterior zones at different temperatures.
  */
 const KNOWN: Record<string, string[]> = {
