@@ -95,39 +95,40 @@ export function assemble(mesh: Mesh, lambda: ArrayLike<number>, zoneCount: numbe
   const col = new Int32Array(rowPtr[n]);
   const val = new Float64Array(rowPtr[n]);
   const diagPos = new Int32Array(n);
-  const faces: BoundaryFaces = { count: nf, unknown: new Int32Array(nf), zone: new Int32Array(nf), side: new Uint8Array(nf), len: new Float64Array(nf), rHalf: new Float64Array(nf) };
+  const fUnknown = new Int32Array(nf), fZone = new Int32Array(nf), fSide = new Uint8Array(nf);
+  const fLen = new Float64Array(nf), fHalf = new Float64Array(nf);
+  const faces: BoundaryFaces = { count: nf, unknown: fUnknown, zone: fZone, side: fSide, len: fLen, rHalf: fHalf };
   let f = 0;
   for (let u = 0; u < n; u++) {
     const c = cellOf[u];
     const i = c % nx, j = (c - i) / nx;
-    const lp = lambda[owner[c]];
+    const rp = 1 / lambda[owner[c]];
     const dx = xs[i + 1] - xs[i], dy = ys[j + 1] - ys[j];
+    const hx = 0.5 * dx * rp, hy = 0.5 * dy * rp; // half-cell resistances across x and y
     let p = rowPtr[u];
     let diag = 0;
-    const nb = (d: number, side: FaceSide, len: number, half: number, nhalf: number) => {
-      const o = owner[d];
-      const q = unknownOf[d];
-      if (q >= 0) {
-        const g = len / (half / lp + nhalf / lambda[o]);
-        diag += g;
-        return -g;
-      }
-      if (o <= -2) {
-        faces.unknown[f] = u;
-        faces.zone[f] = -2 - o;
-        faces.side[f] = side;
-        faces.len[f] = len;
-        faces.rHalf[f] = half / lp;
-        f++;
-      }
-      return 0;
-    };
-    // Columns ascending: south, west, self, east, north.
-    if (j > 0) { const g = nb(c - nx, 2, dx, dy / 2, (ys[j] - ys[j - 1]) / 2); if (g !== 0) { col[p] = unknownOf[c - nx]; val[p++] = g; } }
-    if (i > 0) { const g = nb(c - 1, 0, dy, dx / 2, (xs[i] - xs[i - 1]) / 2); if (g !== 0) { col[p] = unknownOf[c - 1]; val[p++] = g; } }
+    // Columns ascending: south, west, self, east, north. No closures or allocation per cell.
+    if (j > 0) {
+      const d = c - nx, q = unknownOf[d];
+      if (q >= 0) { const g = dx / (hy + (0.5 * (ys[j] - ys[j - 1])) / lambda[owner[d]]); diag += g; col[p] = q; val[p++] = -g; }
+      else if (owner[d] <= -2) { fUnknown[f] = u; fZone[f] = -2 - owner[d]; fSide[f] = 2; fLen[f] = dx; fHalf[f] = hy; f++; }
+    }
+    if (i > 0) {
+      const d = c - 1, q = unknownOf[d];
+      if (q >= 0) { const g = dy / (hx + (0.5 * (xs[i] - xs[i - 1])) / lambda[owner[d]]); diag += g; col[p] = q; val[p++] = -g; }
+      else if (owner[d] <= -2) { fUnknown[f] = u; fZone[f] = -2 - owner[d]; fSide[f] = 0; fLen[f] = dy; fHalf[f] = hx; f++; }
+    }
     const dp = p++;
-    if (i < nx - 1) { const g = nb(c + 1, 1, dy, dx / 2, (xs[i + 2] - xs[i + 1]) / 2); if (g !== 0) { col[p] = unknownOf[c + 1]; val[p++] = g; } }
-    if (j < ny - 1) { const g = nb(c + nx, 3, dx, dy / 2, (ys[j + 2] - ys[j + 1]) / 2); if (g !== 0) { col[p] = unknownOf[c + nx]; val[p++] = g; } }
+    if (i < nx - 1) {
+      const d = c + 1, q = unknownOf[d];
+      if (q >= 0) { const g = dy / (hx + (0.5 * (xs[i + 2] - xs[i + 1])) / lambda[owner[d]]); diag += g; col[p] = q; val[p++] = -g; }
+      else if (owner[d] <= -2) { fUnknown[f] = u; fZone[f] = -2 - owner[d]; fSide[f] = 1; fLen[f] = dy; fHalf[f] = hx; f++; }
+    }
+    if (j < ny - 1) {
+      const d = c + nx, q = unknownOf[d];
+      if (q >= 0) { const g = dx / (hy + (0.5 * (ys[j + 2] - ys[j + 1])) / lambda[owner[d]]); diag += g; col[p] = q; val[p++] = -g; }
+      else if (owner[d] <= -2) { fUnknown[f] = u; fZone[f] = -2 - owner[d]; fSide[f] = 3; fLen[f] = dx; fHalf[f] = hy; f++; }
+    }
     col[dp] = u;
     val[dp] = diag;
     diagPos[u] = dp;

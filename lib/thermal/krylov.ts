@@ -1,5 +1,5 @@
 /**
- * Preconditioned conjugate gradient, one iteration per step() so the caller can watch its own
+ * Preconditioned conjugate gradient (flexible form, so a nonlinear preconditioner such as a K-cycle is fine), one iteration per step() so the caller can watch its own
  * stopping quantities (zone heat flows) and cancel between iterations.
  */
 import type { Preconditioner } from './amg/cycle';
@@ -66,9 +66,11 @@ export class Pcg {
       rr += ri * ri;
     }
     this.m.apply(r, z);
-    let rz = 0;
-    for (let i = 0; i < n; i++) rz += r[i] * z[i];
-    const beta = rz / this.rz;
+    // Flexible CG: beta = -z.q / p.q (equal to the classical rz / rz_old for a fixed preconditioner,
+    // and correct when the preconditioner is itself an iteration, as in the K-cycle).
+    let rz = 0, zq = 0;
+    for (let i = 0; i < n; i++) { rz += r[i] * z[i]; zq += z[i] * q[i]; }
+    const beta = -zq / pq;
     this.rz = rz;
     for (let i = 0; i < n; i++) p[i] = z[i] + beta * p[i];
     this.iterations++;

@@ -1,7 +1,9 @@
 /**
  * The mesh: a non-uniform rectilinear grid whose lines include every vertex coordinate of every
  * solid and zone, graded geometrically away from each line (first cell h0, growth factor g) up to a
- * maximum size, which is smaller where a construction (non-ground) solid spans the interval.
+ * maximum size, which is smaller where a construction (non-ground) solid spans the interval across its
+ * thickness (its shorter side); along its length, and toward the model's outer cut planes, only the
+ * grading limits the cells.
  * Each cell takes what covers its centre: the top-ranked solid, else the top-ranked zone, else void.
  * Sloped edges are therefore staircased at cell resolution (see docs/solver.md for the measured error).
  * A thin layer (a 0.25 mm membrane) is one row of cells between its two grid lines: it adds one row,
@@ -53,10 +55,26 @@ export interface Mesh {
 
 const MERGE = 1e-7;
 
-/** Cell sizes for an interval of length len, graded from both ends. */
-export function gradeInterval(len: number, h0: number, growth: number, hmax: number): number[] {
+/**
+ * Cell sizes for an interval of length len, graded from both ends, or from one end only when the
+ * other is the model's outer edge (an adiabatic cut plane, where nothing changes abruptly).
+ */
+export function gradeInterval(len: number, h0: number, growth: number, hmax: number, gradeLeft = true, gradeRight = true): number[] {
   const hm = Math.max(hmax, h0);
   if (len <= h0 * 1.5) return [len];
+  if (!gradeLeft && !gradeRight) {
+    const k = Math.max(1, Math.round(len / hm));
+    return new Array<number>(k).fill(len / k);
+  }
+  if (!gradeLeft || !gradeRight) {
+    const one: number[] = [];
+    let sum = 0, h = h0;
+    while (sum < len) { one.push(h); sum += h; h = Math.min(h * growth, hm); }
+    if (one.length > 1 && Math.abs(sum - one[one.length - 1] - len) < Math.abs(sum - len)) sum -= one.pop()!;
+    const f = len / sum;
+    const sized = one.map((v) => v * f);
+    return gradeLeft ? sized : sized.reverse();
+  }
   const left: number[] = [], right: number[] = [];
   let sl = 0, sr = 0, hl = h0, hr = h0;
   while (sl + sr < len) {
@@ -89,7 +107,7 @@ function lines(keys: number[], spans: { lo: number; hi: number }[], spec: MeshSp
     let hmax = spec.hmaxGround;
     for (const s of spans) if (s.lo < b - MERGE && s.hi > a + MERGE) { hmax = Math.min(hmax, spec.hmax); break; }
     let x = a;
-    const sizes = gradeInterval(b - a, spec.h0, spec.growth, hmax);
+    const sizes = gradeInterval(b - a, spec.h0, spec.growth, hmax, i > 0, i + 2 < k.length);
     for (let j = 0; j < sizes.length - 1; j++) out.push((x += sizes[j]));
     out.push(b);
   }
@@ -138,8 +156,10 @@ export function buildMesh(solids: readonly GeometrySolid[], zones: readonly Geom
     if (s.ground) continue;
     let a = Infinity, b = -Infinity, c = Infinity, d = -Infinity;
     for (const [x, y] of s.polygon) { a = Math.min(a, x); b = Math.max(b, x); c = Math.min(c, y); d = Math.max(d, y); }
-    spanX.push({ lo: a, hi: b });
-    spanY.push({ lo: c, hi: d });
+    // A construction caps the cell size across its thickness, not along its length: along a slab or
+    // a wall the field changes slowly away from the grid lines, where the grading already keeps cells small.
+    if (b - a <= d - c) spanX.push({ lo: a, hi: b });
+    if (d - c <= b - a) spanY.push({ lo: c, hi: d });
   }
   const xs = lines(kx, spanX, spec), ys = lines(ky, spanY, spec);
   const nx = xs.length - 1, ny = ys.length - 1;

@@ -20,7 +20,7 @@ export interface StopRule {
   maxIterations: number;
 }
 
-export const DEFAULT_STOP: StopRule = { rtol: 1e-10, ftol: 1e-7, btol: 1e-6, maxIterations: 500 };
+export const DEFAULT_STOP: StopRule = { rtol: 1e-10, ftol: 1e-5, btol: 1e-5, maxIterations: 500 };
 
 export interface UnitSolveStats {
   zone: number;

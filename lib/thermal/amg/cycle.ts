@@ -3,24 +3,13 @@
  * and one backward sweep after the coarse correction, so M is symmetric positive definite (PCG).
  */
 import type { Csr } from '../csr';
-import { residual } from '../csr';
 import { denseSolve } from './dense';
 import type { Hierarchy } from './hierarchy';
-import { gaussSeidelBackward, gaussSeidelForward } from './smoothers';
+import { gaussSeidelBackward, gaussSeidelForward, restrictResidual } from './smoothers';
 
 export interface Preconditioner {
   /** z = M^-1 r; r is not modified. */
   apply(r: Float64Array, z: Float64Array): void;
-}
-
-function restrict(p: Csr, r: Float64Array, bc: Float64Array): void {
-  bc.fill(0);
-  const { n, rowPtr, col, val } = p;
-  for (let i = 0; i < n; i++) {
-    const ri = r[i];
-    if (ri === 0) continue;
-    for (let k = rowPtr[i], e = rowPtr[i + 1]; k < e; k++) bc[col[k]] += val[k] * ri;
-  }
 }
 
 function prolongAdd(p: Csr, xc: Float64Array, x: Float64Array): void {
@@ -55,9 +44,8 @@ export class VCycle implements Preconditioner {
     }
     x.fill(0);
     gaussSeidelForward(lv.a, lv.invDiag, x, b);
-    residual(lv.a, x, b, lv.r);
     const next = h.levels[l + 1];
-    restrict(lv.p!, lv.r, next.b);
+    restrictResidual(lv.a, lv.p!, x, b, next.b);
     this.cycle(l + 1, next.b, next.x);
     prolongAdd(lv.p!, next.x, x);
     gaussSeidelBackward(lv.a, lv.invDiag, x, b);

@@ -18,7 +18,6 @@ export interface Level {
   p: Csr | null;
   x: Float64Array;
   b: Float64Array;
-  r: Float64Array;
 }
 
 export interface Hierarchy {
@@ -51,9 +50,9 @@ export function buildHierarchy(a0: Csr, opts: HierarchyOptions = {}): Hierarchy 
     const d = diagonal(a);
     const invDiag = new Float64Array(a.n);
     for (let i = 0; i < a.n; i++) invDiag[i] = d[i] > 0 ? 1 / d[i] : 0;
-    const level: Level = { a, invDiag, p: null, x: new Float64Array(a.n), b: new Float64Array(a.n), r: new Float64Array(a.n) };
+    const level: Level = { a, invDiag, p: null, x: new Float64Array(a.n), b: new Float64Array(a.n) };
     levels.push(level);
-    bytes += invDiag.byteLength * 4 + (levels.length > 1 ? csrBytes(a) : 0);
+    bytes += invDiag.byteLength * 3 + (levels.length > 1 ? csrBytes(a) : 0);
     if (a.n <= coarseSize || levels.length >= maxLevels) break;
     const s = symmetricStrength(a, theta, d);
     const ag = standardAggregation(s);
