@@ -37,7 +37,7 @@ export function basementInteriorFramed() {
       convention: 'internal',
       ground: {
         characteristicDimension: 8,
-        wallHeight: 0.3,
+        wallHeight: 1.6,
         floorFrom: [2, -2.0],
         floorTo: [2, -2.5],
         wallFrom: [-0.3, 1.3],
