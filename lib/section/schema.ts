@@ -164,8 +164,20 @@ export const groundSchema = z
     wallThickness: num().min(0).max(5),
     /** Ground conductivity for ISO 13370, W/(m K). */
     groundLambda: num().gt(0).max(10).default(2.0),
+    /** z: depth of the basement floor below the ground surface, m (ISO 13370 heated basement). Absent: slab on ground. */
+    basementDepth: num().gt(0, { error: (iss) => `basementDepth must be greater than 0 m (leave it out for a slab on ground), got ${iss.input}` }).max(20, { error: (iss) => `basementDepth must be at most 20 m, got ${iss.input}` }).optional(),
+    /** The reference cut through the below-grade basement wall (soil layers are left out), for Rw in ISO 13370. */
+    basementWallFrom: pointSchema.optional(),
+    basementWallTo: pointSchema.optional(),
   })
-  .strict();
+  .strict()
+  .superRefine((g, ctx) => {
+    if (g.basementDepth === undefined) {
+      if (g.basementWallFrom || g.basementWallTo) ctx.addIssue({ code: 'custom', path: ['basementDepth'], message: 'basementDepth is needed when basementWallFrom/basementWallTo are given (ISO 13370 heated basement)' });
+      return;
+    }
+    for (const k of ['basementWallFrom', 'basementWallTo'] as const) if (!g[k]) ctx.addIssue({ code: 'custom', path: [k], message: `${k} is needed with basementDepth (the reference cut through the below-grade wall)` });
+  });
 
 export const analysisSchema = z
   .object({

@@ -6,6 +6,13 @@
  * At the ground: psi_g = L2D - 0.5 B' U_floor - h_w U_wall, U_floor from ISO 13370 for a slab on
  * ground: d_t = w + lambda_g (Rsi + Rf + Rse); U = 2 lambda / (pi B' + d_t) ln(pi B' / d_t + 1) when
  * d_t < B', else lambda / (0.457 B' + d_t) (ISO 13370, clause 9.1, recalled from memory).
+ * Heated basement (ISO 13370 clause on heated basements, formulas recalled from memory), with z the
+ * depth of the basement floor below grade: psi_g = L2D - 0.5 B' U_bf - z U_bw - h_w U_wall, where
+ * U_bf is the slab formula with d_t replaced by d_t + 0.5 z, and
+ * U_bw = 2 lambda / (pi z) (1 + 0.5 d_t / (d_t + z)) ln(z / d_w + 1), d_w = lambda (Rsi + Rw + Rse).
+ * Checked by derivation: z -> 0 gives U_bf -> slab U, and z U_bw -> (2 lambda / pi)(1.5)(z / d_w) -> 0,
+ * so psi_g reduces to the slab value; for z >> d_w, z U_bw grows like ln z (the 2-D far field of a
+ * buried wall, not linear in z) (our own checks, not from the standard).
  */
 import type { Material } from '../materials/material';
 import type { Point } from '../section/geometry';
@@ -13,7 +20,7 @@ import { pointInPolygon } from '../section/geometry';
 import type { ResolvedSection } from '../section/resolve';
 import type { SectionSnapshot } from '../section/schema';
 import type { FaceSide, ZoneRule } from './rs';
-import { RSE, RSI_DOWNWARD, surfaceResistance } from './rs';
+import { RSE, RSI_DOWNWARD, RSI_HORIZONTAL, surfaceResistance } from './rs';
 import type { Assumption, Layer, PsiGroundResult, PsiResult, ReferenceCut } from './types';
 
 function segIntersect(a: Point, b: Point, c: Point, d: Point): number | null {
@@ -111,6 +118,21 @@ export function iso13370SlabU(bPrime: number, w: number, lambdaG: number, rf: nu
   return { u: lambdaG / (0.457 * bPrime + dt), dt, formula: 'U = lambda / (0.457 B\' + d_t) (d_t >= B\')' };
 }
 
+/** ISO 13370 U of a heated basement floor at depth z (heated-basement clause, recalled from memory). */
+export function iso13370BasementFloorU(bPrime: number, w: number, lambdaG: number, rf: number, z: number, rsi = RSI_DOWNWARD, rse = RSE): { u: number; dt: number; formula: string } {
+  const dt = w + lambdaG * (rsi + rf + rse);
+  const de = dt + 0.5 * z;
+  if (de < bPrime) return { u: ((2 * lambdaG) / (Math.PI * bPrime + de)) * Math.log((Math.PI * bPrime) / de + 1), dt, formula: 'U_bf = 2 lambda / (pi B\' + d_t + 0.5 z) ln(pi B\' / (d_t + 0.5 z) + 1) (d_t + 0.5 z < B\')' };
+  return { u: lambdaG / (0.457 * bPrime + de), dt, formula: 'U_bf = lambda / (0.457 B\' + d_t + 0.5 z) (d_t + 0.5 z >= B\')' };
+}
+
+/** ISO 13370 U of a heated basement's below-grade wall (heated-basement clause, recalled from memory). */
+export function iso13370BasementWallU(z: number, dt: number, lambdaG: number, rw: number, rsi = RSI_HORIZONTAL, rse = RSE): { u: number; dw: number; formula: string } {
+  const dw = lambdaG * (rsi + rw + rse);
+  const u = ((2 * lambdaG) / (Math.PI * z)) * (1 + (0.5 * dt) / (dt + z)) * Math.log(z / dw + 1);
+  return { u, dw, formula: 'U_bw = 2 lambda / (pi z) (1 + 0.5 d_t / (d_t + z)) ln(z / d_w + 1)' };
+}
+
 export interface PsiInput {
   resolved: ResolvedSection;
   materials: Material[];
@@ -145,7 +167,8 @@ export function buildPsi(inp: PsiInput): { psi: PsiResult | null; psiGround: Psi
     const gr = an.ground;
     const floor = referenceCut(inp.resolved, inp.materials, inp.rules, 'floor', 'floor construction', gr.floorFrom, gr.floorTo, 0.5 * gr.characteristicDimension, rsi, true);
     const rf = floor.cut.layers.reduce((s, l) => s + l.r, 0);
-    const iso = iso13370SlabU(gr.characteristicDimension, gr.wallThickness, gr.groundLambda, rf);
+    const z = gr.basementDepth;
+    const iso = z === undefined ? iso13370SlabU(gr.characteristicDimension, gr.wallThickness, gr.groundLambda, rf) : iso13370BasementFloorU(gr.characteristicDimension, gr.wallThickness, gr.groundLambda, rf, z);
     let wallCut: ReferenceCut | null = null;
     let uWall: number | null = null;
     if (gr.wallHeight > 0) {
@@ -154,9 +177,21 @@ export function buildPsi(inp: PsiInput): { psi: PsiResult | null; psiGround: Psi
         uWall = wallCut.u;
       } else warnings.push('analysis.ground: wallHeight > 0 needs wallFrom and wallTo (the wall reference cut); the wall term is left out');
     }
-    const psiG = inp.l2d - 0.5 * gr.characteristicDimension * iso.u - (uWall !== null ? gr.wallHeight * uWall : 0);
-    psiGround = { l2d: inp.l2d, psiG, characteristicDimension: gr.characteristicDimension, uFloor: iso.u, dt: iso.dt, rf, wallThickness: gr.wallThickness, groundLambda: gr.groundLambda, formula: iso.formula, floorCut: floor.cut, wallHeight: gr.wallHeight, uWall, wallCut };
-    assumptions.push({ topic: 'psi_g', text: `psi_g = L2D - 0.5 B' U_floor - h_w U_wall with B' = ${gr.characteristicDimension} m, U_floor = ${iso.u.toFixed(4)} W/(m2 K) from ISO 13370 (d_t = ${iso.dt.toFixed(3)} m, Rf = ${rf.toFixed(3)} m2K/W from the floor cut without ground layers, Rsi ${RSI_DOWNWARD}, Rse ${RSE}), h_w = ${+gr.wallHeight.toFixed(4)} m.`, source: 'ISO 10211 and ISO 13370 (slab on ground, clause 9.1; recalled from memory)' });
+    let basement: PsiGroundResult['basement'] = null;
+    if (z !== undefined && gr.basementWallFrom && gr.basementWallTo) {
+      const bw = referenceCut(inp.resolved, inp.materials, inp.rules, 'basement-wall', 'basement wall below ground', gr.basementWallFrom, gr.basementWallTo, z, rsi, true);
+      const rw = bw.cut.layers.reduce((s, l) => s + l.r, 0);
+      if (!bw.cut.layers.length) warnings.push('analysis.ground: the basement wall reference cut crosses no solid other than ground');
+      const w = iso13370BasementWallU(z, iso.dt, gr.groundLambda, rw);
+      basement = { depth: z, uWall: w.u, dw: w.dw, rw, formula: w.formula, wallCut: bw.cut };
+    }
+    const psiG = inp.l2d - 0.5 * gr.characteristicDimension * iso.u - (basement ? basement.depth * basement.uWall : 0) - (uWall !== null ? gr.wallHeight * uWall : 0);
+    psiGround = { l2d: inp.l2d, psiG, characteristicDimension: gr.characteristicDimension, uFloor: iso.u, dt: iso.dt, rf, wallThickness: gr.wallThickness, groundLambda: gr.groundLambda, formula: iso.formula, floorCut: floor.cut, wallHeight: gr.wallHeight, uWall, wallCut, basement };
+    if (basement) {
+      assumptions.push({ topic: 'psi_g', text: `Heated-basement convention: psi_g = L2D - 0.5 B' U_bf - z U_bw - h_w U_wall with B' = ${gr.characteristicDimension} m, z = ${+basement.depth.toFixed(4)} m, U_bf = ${iso.u.toFixed(4)} W/(m2 K) (d_t = ${iso.dt.toFixed(3)} m, Rf = ${rf.toFixed(3)} m2K/W, Rsi ${RSI_DOWNWARD}, Rse ${RSE}), U_bw = ${basement.uWall.toFixed(4)} W/(m2 K) (d_w = ${basement.dw.toFixed(3)} m, Rw = ${basement.rw.toFixed(3)} m2K/W from the below-grade wall cut without ground layers, Rsi ${RSI_HORIZONTAL}, Rse ${RSE}), h_w = ${+gr.wallHeight.toFixed(4)} m.`, source: 'ISO 10211 and ISO 13370 (heated basement; formulas recalled from memory)' });
+    } else {
+      assumptions.push({ topic: 'psi_g', text: `Slab-on-ground convention: psi_g = L2D - 0.5 B' U_floor - h_w U_wall with B' = ${gr.characteristicDimension} m, U_floor = ${iso.u.toFixed(4)} W/(m2 K) from ISO 13370 (d_t = ${iso.dt.toFixed(3)} m, Rf = ${rf.toFixed(3)} m2K/W from the floor cut without ground layers, Rsi ${RSI_DOWNWARD}, Rse ${RSE}), h_w = ${+gr.wallHeight.toFixed(4)} m.`, source: 'ISO 10211 and ISO 13370 (slab on ground, clause 9.1; recalled from memory)' });
+    }
   }
   return { psi, psiGround, warnings, assumptions };
 }

@@ -83,6 +83,8 @@ export interface PsiGroundResult {
   wallHeight: number;
   uWall: number | null;
   wallCut: ReferenceCut | null;
+  /** ISO 13370 heated basement: z, U of the below-grade wall and its cut; null for a slab on ground. */
+  basement: { depth: number; uWall: number; dw: number; rw: number; formula: string; wallCut: ReferenceCut } | null;
 }
 
 export interface Segment {
