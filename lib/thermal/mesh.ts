@@ -158,8 +158,13 @@ export function buildMesh(solids: readonly GeometrySolid[], zones: readonly Geom
     for (const [x, y] of s.polygon) { a = Math.min(a, x); b = Math.max(b, x); c = Math.min(c, y); d = Math.max(d, y); }
     // A construction caps the cell size across its thickness, not along its length: along a slab or
     // a wall the field changes slowly away from the grid lines, where the grading already keeps cells small.
-    if (b - a <= d - c) spanX.push({ lo: a, hi: b });
-    if (d - c <= b - a) spanY.push({ lo: c, hi: d });
+    // A solid with a sloped edge keeps both caps: its staircase error scales with the cell size along it.
+    const sloped = s.polygon.some(([x, y], i) => {
+      const [x2, y2] = s.polygon[(i + 1) % s.polygon.length];
+      return Math.abs(x2 - x) > 1e-12 && Math.abs(y2 - y) > 1e-12;
+    });
+    if (sloped || b - a <= d - c) spanX.push({ lo: a, hi: b });
+    if (sloped || d - c <= b - a) spanY.push({ lo: c, hi: d });
   }
   const xs = lines(kx, spanX, spec), ys = lines(ky, spanY, spec);
   const nx = xs.length - 1, ny = ys.length - 1;
