@@ -9,6 +9,7 @@ import * as Y from 'yjs';
 import type { WebsocketProvider } from 'y-websocket';
 import type { BoardController } from '@/components/board/controller';
 import LiveBoard from '@/components/live/LiveBoard';
+import { boardTestHook } from '@/components/board/test-hook';
 import { lookupKey, RoomApiError, rotateKey, type Role } from '@/lib/collab/api';
 import { initialiseRoom, isEmptyRoom, pendingKey } from '@/lib/collab/initial';
 import { cleanName, colourForClient, defaultName, peersOf, pointerMoved, type Peer } from '@/lib/collab/presence';
@@ -253,27 +254,8 @@ function Room({ roomKey, role, initialViewKey }: { roomKey: string; role: Role; 
     (c: BoardController) => {
       setController(c);
       setCanvas(document.querySelector('[data-testid="board-canvas"]') as HTMLElement | null);
-      const w = window as unknown as { __dewline?: Record<string, unknown> };
-      w.__dewline = Object.assign(w.__dewline ?? {}, {
-        doc,
-        Y,
-        controller: c,
+      window.__dewline = Object.assign(window.__dewline ?? {}, boardTestHook(doc, c), {
         role,
-        snapshot: () => {
-          const v = readSection(doc);
-          return v.ok ? v.section : { problems: v.problems };
-        },
-        undo: () => c.undo(),
-        redo: () => c.redo(),
-        select: (parts: string[], zones: string[] = []) => c.select({ parts, zones }),
-        canUndo: () => c.undoManager.undoStack.length,
-        partBox: (id: string) => c.section.get().resolved.parts.get(id)?.box ?? null,
-        toClient: (x: number, y: number) => {
-          const el = document.querySelector('[data-testid="board-canvas"]') as HTMLElement;
-          const r = el.getBoundingClientRect();
-          const [sx, sy] = c.toScreen([x, y]);
-          return { x: r.left + sx, y: r.top + sy };
-        },
         status: () => factsRef.current,
       });
     },

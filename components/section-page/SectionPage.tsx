@@ -13,6 +13,7 @@ import { blankSection, templateByName, TEMPLATES } from '@/lib/section/templates
 import { parseSectionText } from '@/lib/section/validate';
 import type { BoardController } from '@/components/board/controller';
 import LiveBoard from '@/components/live/LiveBoard';
+import { boardTestHook } from '@/components/board/test-hook';
 import { SheetLink } from '@/components/sheet/SheetLink';
 
 const Board = dynamic(() => import('@/components/board/Board'), { ssr: false, loading: () => <p style={{ padding: 24 }}>Loading the board…</p> });
@@ -37,12 +38,6 @@ export function startFrom(search: string, stored: string | null): Start {
     return { ok: true, snapshot: v.section };
   }
   return { ok: true, snapshot: blankSection() };
-}
-
-declare global {
-  interface Window {
-    __dewline?: Record<string, unknown>;
-  }
 }
 
 export default function SectionPage() {
@@ -80,27 +75,5 @@ export default function SectionPage() {
 }
 
 function expose(doc: Y.Doc, c: BoardController) {
-  window.__dewline = {
-    doc,
-    Y,
-    controller: c,
-    snapshot: () => {
-      const v = readSection(doc);
-      return v.ok ? v.section : { problems: v.problems };
-    },
-    undo: () => c.undo(),
-    redo: () => c.redo(),
-    select: (parts: string[], zones: string[] = []) => c.select({ parts, zones }),
-    selection: () => c.ui.get().selection,
-    view: () => c.view.get(),
-    /** Page (client) coordinates of a world point, for tests that click on the drawing. */
-    toClient: (x: number, y: number) => {
-      const el = document.querySelector('[data-testid="board-canvas"]') as HTMLElement;
-      const r = el.getBoundingClientRect();
-      const [sx, sy] = c.toScreen([x, y]);
-      return { x: r.left + sx, y: r.top + sy };
-    },
-    partBox: (id: string) => c.section.get().resolved.parts.get(id)?.box ?? null,
-    canUndo: () => c.undoManager.undoStack.length,
-  };
+  window.__dewline = boardTestHook(doc, c);
 }
