@@ -1,6 +1,6 @@
 /**
  * Browser tests in Chromium (Debian's, or $CHROMIUM_PATH) against the built app served by server/main.ts.
- * `npm test` builds the app first; set DEWLINE_URL to test an already running server instead.
+ * The app is built first when stale (also by `npm test`); set DEWLINE_URL to test an already running server instead.
  */
 import { defineConfig } from '@playwright/test';
 import os from 'node:os';
@@ -29,10 +29,11 @@ export default defineConfig({
   webServer: external
     ? undefined
     : {
-        command: `node node_modules/tsx/dist/cli.mjs server/main.ts`,
+        // Builds first when the sources are newer than the build, so a direct `npx playwright test` never tests a stale app.
+        command: `node scripts/build-if-stale.mjs && node node_modules/tsx/dist/cli.mjs server/main.ts`,
         url: `http://127.0.0.1:${port}/healthz`,
         reuseExistingServer: false,
-        timeout: 120_000,
+        timeout: 300_000,
         env: { PORT: String(port), HOST: '127.0.0.1', NODE_ENV: 'production', DEWLINE_DB: path.join(os.tmpdir(), `dewline-e2e-${process.pid}.sqlite`) },
       },
 });

@@ -24,3 +24,6 @@ export function buildIfStale({ force = false } = {}) {
   const r = spawnSync(process.execPath, [path.join(root, 'node_modules/next/dist/bin/next'), 'build'], { cwd: root, stdio: 'inherit' });
   return r.status ?? 1;
 }
+
+// `node scripts/build-if-stale.mjs`: build when stale, exit with the build's status.
+if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) process.exit(buildIfStale());
