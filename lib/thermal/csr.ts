@@ -99,3 +99,16 @@ export function spgemm(a: Csr, b: Csr): Csr {
   }
   return { n, m, rowPtr, col, val };
 }
+
+/** y = A x, returning x . y (one pass instead of two, for CG's p . A p). */
+export function spmvDot(a: Csr, x: Float64Array, y: Float64Array): number {
+  const { n, rowPtr, col, val } = a;
+  let d = 0;
+  for (let i = 0; i < n; i++) {
+    let s = 0;
+    for (let k = rowPtr[i], e = rowPtr[i + 1]; k < e; k++) s += val[k] * x[col[k]];
+    y[i] = s;
+    d += x[i] * s;
+  }
+  return d;
+}

@@ -2,9 +2,9 @@
  * Preconditioned conjugate gradient (flexible form, so a nonlinear preconditioner such as a K-cycle is fine), one iteration per step() so the caller can watch its own
  * stopping quantities (zone heat flows) and cancel between iterations.
  */
-import type { Preconditioner } from './amg/cycle';
+import type { Preconditioner } from './preconditioner';
 import type { Csr } from './csr';
-import { residual, spmv } from './csr';
+import { residual, spmvDot } from './csr';
 
 export class Pcg {
   readonly n: number;
@@ -53,9 +53,7 @@ export class Pcg {
   /** One iteration; returns the relative residual ||b - A x|| / ||b||. */
   step(): number {
     const { n, x, r, z, p, q } = this;
-    spmv(this.a, p, q);
-    let pq = 0;
-    for (let i = 0; i < n; i++) pq += p[i] * q[i];
+    const pq = spmvDot(this.a, p, q);
     if (!(pq > 0)) return this.relativeResidual; // converged to round-off (or lost positivity)
     const alpha = this.rz / pq;
     let rr = 0;

@@ -11,8 +11,8 @@ import type { Point } from '../section/geometry';
 import { resolveSection } from '../section/resolve';
 import type { ResolvedSection } from '../section/resolve';
 import type { SectionSnapshot } from '../section/schema';
-import { VCycle } from './amg/cycle';
-import { buildHierarchy } from './amg/hierarchy';
+import { GridVCycle } from './gmg/cycle';
+import { buildGridHierarchy } from './gmg/hierarchy';
 import type { ThermalSystem } from './assemble';
 import { assemble, faceConductances, operatorWith, zoneFlows } from './assemble';
 import { TemperatureField } from './field';
@@ -156,8 +156,8 @@ export function* solveSectionSteps(snapshot: SectionSnapshot, options: SolveOpti
   let sameRuns = true;
   for (let f = 0; f < gHeat.length; f++) if (gHeat[f] !== gSurf[f]) { sameRuns = false; break; }
   const aHeat = operatorWith(sys, gHeat);
-  const hierarchy = buildHierarchy(aHeat);
-  const pre = new VCycle(hierarchy);
+  const hierarchy = buildGridHierarchy(aHeat, sys.cellOf, mesh.nx, mesh.ny);
+  const pre = new GridVCycle(hierarchy);
   const t3 = now();
 
   const stop: StopRule = { ...DEFAULT_STOP, ...options.stop };
@@ -302,8 +302,8 @@ export function* solveSectionSteps(snapshot: SectionSnapshot, options: SolveOpti
     name: snapshot.name,
     mesh: { level: typeof level === 'string' ? level : 'custom', spec, nx: mesh.nx, ny: mesh.ny, cells: mesh.nx * mesh.ny, unknowns: sys.n, minCell: minStep(mesh.xs, mesh.ys), maxCell: maxStep(mesh.xs, mesh.ys) },
     solver: {
-      method: 'PCG, smoothed-aggregation multigrid V(1,1) preconditioner (Gauss-Seidel forward and backward), Galerkin coarse operators',
-      levels: hierarchy.levels.map((l) => l.a.n),
+      method: 'PCG, geometric multigrid V(1,1) preconditioner on the mesh grid (operator-dependent interpolation, Galerkin coarse operators, Gauss-Seidel forward and backward)',
+      levels: hierarchy.sizes,
       operatorComplexity: hierarchy.operatorComplexity,
       solves: reports,
       residual: Math.max(0, ...reports.map((r) => r.relativeResidual)),

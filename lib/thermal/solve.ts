@@ -4,7 +4,7 @@
  * and balance. Written as a generator that yields between iterations, so a caller can cancel or
  * let other work run (the browser worker yields to its message loop).
  */
-import type { Preconditioner } from './amg/cycle';
+import type { Preconditioner } from './preconditioner';
 import type { ThermalSystem } from './assemble';
 import { rhs, zoneFlows } from './assemble';
 import type { Csr } from './csr';
