@@ -16,9 +16,9 @@ export interface GridLevel {
   nx: number;
   ny: number;
   stride: number;
-  /** Diagonal and its inverse. */
   c: Float64Array;
-  id: Float64Array;
+  /** Inverse diagonal, for the point smoother only (see inverseDiagonal). */
+  id: Float64Array | null;
   w: Float64Array;
   s: Float64Array;
   sw: Float64Array | null;
@@ -38,20 +38,28 @@ export function emptyLevel(nx: number, ny: number, ninePoint: boolean): GridLeve
   const len = stride * (ny + 2);
   return {
     nx, ny, stride,
-    c: new Float64Array(len), id: new Float64Array(len), w: new Float64Array(len), s: new Float64Array(len),
+    c: new Float64Array(len), id: null, w: new Float64Array(len), s: new Float64Array(len),
     sw: ninePoint ? new Float64Array(len) : null, se: ninePoint ? new Float64Array(len) : null,
     x: new Float64Array(len), b: new Float64Array(len),
   };
 }
 
-/** Fill the inverse diagonal; decoupled or empty rows get diagonal 1. */
+/** Decoupled or empty rows get diagonal 1. */
 export function finishDiagonal(lv: GridLevel): void {
-  const { nx, ny, stride, c, id } = lv;
+  const { nx, ny, stride, c } = lv;
   for (let j = 1; j <= ny; j++)
-    for (let k = j * stride + 1, e = k + nx; k < e; k++) {
-      if (!(c[k] > 0)) c[k] = 1;
-      id[k] = 1 / c[k];
-    }
+    for (let k = j * stride + 1, e = k + nx; k < e; k++) if (!(c[k] > 0)) c[k] = 1;
+}
+
+/** The inverse diagonal (the point smoother's); computed once per level. */
+export function inverseDiagonal(lv: GridLevel): Float64Array {
+  if (lv.id) return lv.id;
+  const { nx, ny, stride, c } = lv;
+  const id = new Float64Array(c.length);
+  for (let j = 1; j <= ny; j++)
+    for (let k = j * stride + 1, e = k + nx; k < e; k++) id[k] = 1 / c[k];
+  lv.id = id;
+  return id;
 }
 
 /**
@@ -95,7 +103,7 @@ export function levelNonzeros(lv: GridLevel): number {
 }
 
 export function levelBytes(lv: GridLevel): number {
-  let b = lv.c.byteLength + lv.id.byteLength + lv.w.byteLength + lv.s.byteLength + lv.x.byteLength + lv.b.byteLength;
+  let b = lv.c.byteLength + (lv.id ? lv.id.byteLength : 0) + lv.w.byteLength + lv.s.byteLength + lv.x.byteLength + lv.b.byteLength;
   if (lv.sw) b += lv.sw.byteLength;
   if (lv.se) b += lv.se.byteLength;
   return b;

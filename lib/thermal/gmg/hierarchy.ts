@@ -8,7 +8,7 @@ import type { BandCholesky } from './band';
 import { bandCholesky, bandCost } from './band';
 import { galerkinCoarse } from './galerkin';
 import type { GridLevel } from './grid';
-import { fineLevelFromCsr, levelBytes, levelNonzeros } from './grid';
+import { fineLevelFromCsr, inverseDiagonal, levelBytes, levelNonzeros } from './grid';
 import type { Prolongator } from './interpolation';
 import type { LinePivots } from './lines';
 import { linePivots } from './lines';
@@ -51,6 +51,7 @@ export function buildGridHierarchy(a: Csr, cellOf: Int32Array, nx: number, ny: n
   const pivots: LinePivots[] = [];
   while (bandCost(lv) > coarseCost && (lv.nx > 1 || lv.ny > 1)) {
     if (smoother === 'line') { const pv = linePivots(lv); pivots.push(pv); bytes += pv.x.byteLength + pv.y.byteLength; }
+    else bytes += inverseDiagonal(lv).byteLength;
     const p = operatorInterpolation(lv);
     const next = galerkinCoarse(lv, p);
     prolongators.push(p);

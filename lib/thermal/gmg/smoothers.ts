@@ -4,10 +4,12 @@
  * symmetric), the residual restricted by P^T in the same pass, and prolongation. No allocation.
  */
 import type { GridLevel } from './grid';
+import { inverseDiagonal } from './grid';
 import type { Prolongator } from './interpolation';
 
 export function gaussSeidelForward(lv: GridLevel): void {
-  const { nx, ny, stride: st, id, w: W, s: S, sw: SW, se: SE, x, b } = lv;
+  const { nx, ny, stride: st, w: W, s: S, sw: SW, se: SE, x, b } = lv;
+  const id = inverseDiagonal(lv);
   if (SW && SE) {
     for (let j = 1; j <= ny; j++)
       for (let k = j * st + 1, e = k + nx; k < e; k++)
@@ -21,7 +23,8 @@ export function gaussSeidelForward(lv: GridLevel): void {
 }
 
 export function gaussSeidelBackward(lv: GridLevel): void {
-  const { nx, ny, stride: st, id, w: W, s: S, sw: SW, se: SE, x, b } = lv;
+  const { nx, ny, stride: st, w: W, s: S, sw: SW, se: SE, x, b } = lv;
+  const id = inverseDiagonal(lv);
   if (SW && SE) {
     for (let j = ny; j >= 1; j--)
       for (let k = j * st + nx, e = j * st; k > e; k--)
