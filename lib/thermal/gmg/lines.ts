@@ -26,52 +26,58 @@ export function linePivots(lv: GridLevel): LinePivots {
 
 /** Solve the x-lines (rows) j = parity, parity + 2, ... (j from 0). */
 export function xLines(lv: GridLevel, piv: Float64Array, parity: number): void {
-  const { nx, ny, stride: st, w: W, s: S, sw: SW, se: SE, x, b } = lv;
+  if (lv.sw && lv.se) xLines9(lv.nx, lv.ny, lv.stride, lv.w, lv.s, lv.sw, lv.se, lv.x, lv.b, piv, parity);
+  else xLines5(lv.nx, lv.ny, lv.stride, lv.w, lv.s, lv.x, lv.b, piv, parity);
+}
+
+/** Solve the y-lines (columns) i = parity, parity + 2, ... (i from 0), all of them together row by row. */
+export function yLines(lv: GridLevel, piv: Float64Array, parity: number): void {
+  if (lv.sw && lv.se) yLines9(lv.nx, lv.ny, lv.stride, lv.w, lv.s, lv.sw, lv.se, lv.x, lv.b, piv, parity);
+  else yLines5(lv.nx, lv.ny, lv.stride, lv.w, lv.s, lv.x, lv.b, piv, parity);
+}
+
+// One function per stencil, so each stays monomorphic. In every row the first elimination step
+// reads a ghost (0) and the couplings toward ghosts are 0, so no boundary needs a special case.
+
+function xLines5(nx: number, ny: number, st: number, W: Float64Array, S: Float64Array, x: Float64Array, b: Float64Array, piv: Float64Array, parity: number): void {
   for (let j = parity; j < ny; j += 2) {
     const k0 = (j + 1) * st + 1, k1 = k0 + nx;
-    if (SW && SE) {
-      for (let k = k0; k < k1; k++) {
-        const r = b[k] - S[k] * x[k - st] - S[k + st] * x[k + st]
-          - SW[k] * x[k - st - 1] - SE[k] * x[k - st + 1] - SE[k + st - 1] * x[k + st - 1] - SW[k + st + 1] * x[k + st + 1];
-        x[k] = r - W[k] * piv[k - 1] * x[k - 1];
-      }
-    } else {
-      for (let k = k0; k < k1; k++) x[k] = b[k] - S[k] * x[k - st] - S[k + st] * x[k + st] - W[k] * piv[k - 1] * x[k - 1];
-    }
-    // x[k0 - 1] is a ghost (0), so the first row of the elimination needs no special case.
+    for (let k = k0; k < k1; k++) x[k] = b[k] - S[k] * x[k - st] - S[k + st] * x[k + st] - W[k] * piv[k - 1] * x[k - 1];
     x[k1 - 1] *= piv[k1 - 1];
     for (let k = k1 - 2; k >= k0; k--) x[k] = (x[k] - W[k + 1] * x[k + 1]) * piv[k];
   }
 }
 
-/** Solve the y-lines (columns) i = parity, parity + 2, ... (i from 0), all of them together row by row. */
-export function yLines(lv: GridLevel, piv: Float64Array, parity: number): void {
-  const { nx, ny, stride: st, w: W, s: S, sw: SW, se: SE, x, b } = lv;
-  for (let j = 1; j <= ny; j++) {
-    const row = j * st + 1;
-    if (SW && SE) {
-      for (let i = parity; i < nx; i += 2) {
-        const k = row + i;
-        const r = b[k] - W[k] * x[k - 1] - W[k + 1] * x[k + 1]
-          - SW[k] * x[k - st - 1] - SE[k] * x[k - st + 1] - SE[k + st - 1] * x[k + st - 1] - SW[k + st + 1] * x[k + st + 1];
-        x[k] = r - S[k] * piv[k - st] * x[k - st];
-      }
-    } else {
-      for (let i = parity; i < nx; i += 2) {
-        const k = row + i;
-        x[k] = b[k] - W[k] * x[k - 1] - W[k + 1] * x[k + 1] - S[k] * piv[k - st] * x[k - st];
-      }
-    }
+function xLines9(nx: number, ny: number, st: number, W: Float64Array, S: Float64Array, SW: Float64Array, SE: Float64Array, x: Float64Array, b: Float64Array, piv: Float64Array, parity: number): void {
+  for (let j = parity; j < ny; j += 2) {
+    const k0 = (j + 1) * st + 1, k1 = k0 + nx;
+    for (let k = k0; k < k1; k++)
+      x[k] = b[k] - S[k] * x[k - st] - S[k + st] * x[k + st]
+        - SW[k] * x[k - st - 1] - SE[k] * x[k - st + 1] - SE[k + st - 1] * x[k + st - 1] - SW[k + st + 1] * x[k + st + 1]
+        - W[k] * piv[k - 1] * x[k - 1];
+    x[k1 - 1] *= piv[k1 - 1];
+    for (let k = k1 - 2; k >= k0; k--) x[k] = (x[k] - W[k + 1] * x[k + 1]) * piv[k];
   }
-  // The ghost row below is 0, so the elimination above needed no special case; now back-substitute.
-  for (let i = parity, k = ny * st + 1 + parity; i < nx; i += 2, k += 2) x[k] *= piv[k];
-  for (let j = ny - 1; j >= 1; j--) {
-    const row = j * st + 1;
-    for (let i = parity; i < nx; i += 2) {
-      const k = row + i;
-      x[k] = (x[k] - S[k + st] * x[k + st]) * piv[k];
-    }
-  }
+}
+
+function yLines5(nx: number, ny: number, st: number, W: Float64Array, S: Float64Array, x: Float64Array, b: Float64Array, piv: Float64Array, parity: number): void {
+  for (let j = 1; j <= ny; j++)
+    for (let k = j * st + 1 + parity, e = j * st + 1 + nx; k < e; k += 2)
+      x[k] = b[k] - W[k] * x[k - 1] - W[k + 1] * x[k + 1] - S[k] * piv[k - st] * x[k - st];
+  for (let k = ny * st + 1 + parity, e = ny * st + 1 + nx; k < e; k += 2) x[k] *= piv[k];
+  for (let j = ny - 1; j >= 1; j--)
+    for (let k = j * st + 1 + parity, e = j * st + 1 + nx; k < e; k += 2) x[k] = (x[k] - S[k + st] * x[k + st]) * piv[k];
+}
+
+function yLines9(nx: number, ny: number, st: number, W: Float64Array, S: Float64Array, SW: Float64Array, SE: Float64Array, x: Float64Array, b: Float64Array, piv: Float64Array, parity: number): void {
+  for (let j = 1; j <= ny; j++)
+    for (let k = j * st + 1 + parity, e = j * st + 1 + nx; k < e; k += 2)
+      x[k] = b[k] - W[k] * x[k - 1] - W[k + 1] * x[k + 1]
+        - SW[k] * x[k - st - 1] - SE[k] * x[k - st + 1] - SE[k + st - 1] * x[k + st - 1] - SW[k + st + 1] * x[k + st + 1]
+        - S[k] * piv[k - st] * x[k - st];
+  for (let k = ny * st + 1 + parity, e = ny * st + 1 + nx; k < e; k += 2) x[k] *= piv[k];
+  for (let j = ny - 1; j >= 1; j--)
+    for (let k = j * st + 1 + parity, e = j * st + 1 + nx; k < e; k += 2) x[k] = (x[k] - S[k + st] * x[k + st]) * piv[k];
 }
 
 /** Pre-smoothing: x-lines even then odd, y-lines even then odd. */
