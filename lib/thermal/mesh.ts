@@ -57,6 +57,11 @@ export interface Mesh {
   yc: Float64Array;
   /** Per cell (j nx + i): solid index >= 0, -1 void, -2 - z for zone z. */
   owner: Int32Array;
+  /**
+   * The solids' sloped edges (neither horizontal nor vertical), staircased on this grid: solid index
+   * per edge, and its end points (ax, ay, bx, by per edge). Absent when there are none.
+   */
+  sloped?: { solid: Int32Array; seg: Float64Array };
 }
 
 const MERGE = 1e-7;
@@ -228,7 +233,13 @@ export function buildMesh(solids: readonly GeometrySolid[], zones: readonly Geom
   };
   zones.forEach((z, i) => paint(z.polygon, -2 - i));
   solids.forEach((s, i) => paint(s.polygon, i));
-  return { nx, ny, xs, ys, xc, yc, owner };
+  const sSolid: number[] = [], sSeg: number[] = [];
+  solids.forEach((s, i) => s.polygon.forEach(([ax, ay], k) => {
+    const [bx, by] = s.polygon[(k + 1) % s.polygon.length];
+    if (Math.abs(bx - ax) > 1e-12 && Math.abs(by - ay) > 1e-12) { sSolid.push(i); sSeg.push(ax, ay, bx, by); }
+  }));
+  const sloped = sSolid.length ? { solid: Int32Array.from(sSolid), seg: Float64Array.from(sSeg) } : undefined;
+  return { nx, ny, xs, ys, xc, yc, owner, ...(sloped ? { sloped } : {}) };
 }
 
 /**

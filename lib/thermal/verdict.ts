@@ -173,13 +173,15 @@ export function buildSegments(inp: SegmentInput): SegmentOutput {
     // A visible surface's coldest point is often where it ends (a corner, or where it meets another
     // part): read the surface temperature at the end nodes too (TemperatureField.nodeTemperatures),
     // at each end where the surface does not get warmer toward the end over its last two faces
-    // (there the end cannot be the coldest point).
+    // (there the end cannot be the coldest point), and not on the steps of a staircased sloped edge.
     if (r.kind === 'surface') {
       const nf = r.ref.length;
       for (const first of [true, false]) {
         const e = first ? 0 : nf - 1, nb = first ? 1 : nf - 2;
         if (nf > 1 && r.tDesign[e] > r.tDesign[nb] && r.tMonth[e] > r.tMonth[nb]) continue;
         const k = r.ref[e], c = sys.cellOf[f.unknown[k]];
+        // The steps of a staircased sloped edge are not corners of the real surface.
+        if (f.rsScale[k] !== 1) continue;
         const ci = c % nx, cj = (c - ci) / nx;
         const i0 = r.horizontal ? (first ? ci : ci + 1) : r.line;
         const j0 = r.horizontal ? r.line : first ? cj : cj + 1;
