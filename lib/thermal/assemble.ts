@@ -21,6 +21,12 @@ export interface BoundaryFaces {
   len: Float64Array;
   /** Half-cell resistance normal to the face, (d/2)/lambda, m2K/W. */
   rHalf: Float64Array;
+  /**
+   * Factor on the surface resistance: 1, or on a staircased sloped edge at angle a, |cos a| + |sin a|
+   * (the staircase's face length over the edge's true length), so the surface conductance summed
+   * along the staircase is that of the true surface.
+   */
+  rsScale: Float64Array;
 }
 
 export interface ThermalSystem {
@@ -97,7 +103,8 @@ export function assemble(mesh: Mesh, lambda: ArrayLike<number>, zoneCount: numbe
   const diagPos = new Int32Array(n);
   const fUnknown = new Int32Array(nf), fZone = new Int32Array(nf), fSide = new Uint8Array(nf);
   const fLen = new Float64Array(nf), fHalf = new Float64Array(nf);
-  const faces: BoundaryFaces = { count: nf, unknown: fUnknown, zone: fZone, side: fSide, len: fLen, rHalf: fHalf };
+  const fScale = new Float64Array(nf).fill(1);
+  const faces: BoundaryFaces = { count: nf, unknown: fUnknown, zone: fZone, side: fSide, len: fLen, rHalf: fHalf, rsScale: fScale };
   let f = 0;
   for (let u = 0; u < n; u++) {
     const c = cellOf[u];
@@ -133,7 +140,37 @@ export function assemble(mesh: Mesh, lambda: ArrayLike<number>, zoneCount: numbe
     val[dp] = diag;
     diagPos[u] = dp;
   }
+  if (mesh.sloped) slopeFactors(mesh, mesh.sloped, cellOf, faces);
   return { mesh, n, cellOf, unknownOf, interior: { n, m: n, rowPtr, col, val }, diagPos, faces, isolatedSolids: [...isolated].sort((a, b) => a - b), zoneCount };
+}
+
+/**
+ * rsScale for zone faces on the staircase of a sloped solid edge: a face whose centre lies within one
+ * cell (the larger side of its solid cell) of a sloped edge of that cell's own solid takes the nearest
+ * such edge's |cos a| + |sin a| = (|bx - ax| + |by - ay|) / length. The staircase of a straight edge
+ * stays within one cell of it, so every face of it is found; a face of an axis-aligned edge within one
+ * cell of a sloped edge's end (at a corner) takes the factor too, which is the method's error there.
+ */
+function slopeFactors(mesh: Mesh, sl: NonNullable<Mesh['sloped']>, cellOf: Int32Array, faces: BoundaryFaces): void {
+  const { nx, xs, ys, owner } = mesh;
+  const ne = sl.solid.length;
+  for (let f = 0; f < faces.count; f++) {
+    const c = cellOf[faces.unknown[f]];
+    const i = c % nx, j = (c - i) / nx, s = faces.side[f];
+    const px = s === 0 ? xs[i] : s === 1 ? xs[i + 1] : 0.5 * (xs[i] + xs[i + 1]);
+    const py = s === 2 ? ys[j] : s === 3 ? ys[j + 1] : 0.5 * (ys[j] + ys[j + 1]);
+    const h = Math.max(xs[i + 1] - xs[i], ys[j + 1] - ys[j]);
+    let best = h * h, k = 1;
+    for (let e = 0; e < ne; e++) {
+      if (sl.solid[e] !== owner[c]) continue;
+      const ax = sl.seg[4 * e], ay = sl.seg[4 * e + 1], bx = sl.seg[4 * e + 2], by = sl.seg[4 * e + 3];
+      const ex = bx - ax, ey = by - ay, l2 = ex * ex + ey * ey;
+      const t = Math.min(1, Math.max(0, ((px - ax) * ex + (py - ay) * ey) / l2));
+      const dx = px - ax - t * ex, dy = py - ay - t * ey, d2 = dx * dx + dy * dy;
+      if (d2 <= best) { best = d2; k = (Math.abs(ex) + Math.abs(ey)) / Math.sqrt(l2); }
+    }
+    faces.rsScale[f] = k;
+  }
 }
 
 /** Conductance of each boundary face for a run, W/(m K) per metre run. */
@@ -141,7 +178,7 @@ export function faceConductances(sys: ThermalSystem, rules: readonly ZoneRule[],
   const { faces } = sys;
   const g = new Float64Array(faces.count);
   for (let f = 0; f < faces.count; f++) {
-    const rs = surfaceResistance(rules[faces.zone[f]], faces.side[f] as FaceSide, run, rsiSurface);
+    const rs = surfaceResistance(rules[faces.zone[f]], faces.side[f] as FaceSide, run, rsiSurface) * faces.rsScale[f];
     g[f] = faces.len[f] / (rs + faces.rHalf[f]);
   }
   return g;

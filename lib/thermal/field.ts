@@ -1,10 +1,21 @@
 /**
  * Temperatures from a solution: per cell, on each face (flux-continuous interface value, surface
- * value behind the surface resistance, or the cell value on an adiabatic face), and at any point
+ * value behind the surface resistance, or the cell value on an adiabatic face), at any point
  * (the cell value plus one-sided linear reconstruction toward the nearest faces, limited to the
- * range of the solution; exact in 1-D).
+ * range of the solution; exact in 1-D), and at a grid node on a surface (a corner where a surface
+ * ends), from a local refined solve around the node (see nodeTemperatures).
  */
 import type { ThermalSystem } from './assemble';
+
+/** A set of temperatures: per unknown (cell) and per zone. */
+export interface TemperatureSet {
+  x: Float64Array;
+  tz: ArrayLike<number>;
+}
+
+/** Local refined solve at a node: coarse cells on each side of the node, and sub-cells per coarse cell and direction. */
+export const NODE_PATCH_CELLS = 3;
+export const NODE_PATCH_SPLIT = 4;
 
 export class TemperatureField {
   /** Per boundary face, the surface resistance used (m2K/W). */
@@ -46,6 +57,11 @@ export class TemperatureField {
     return u >= 0 ? this.x[u] : NaN;
   }
 
+  /** Surface resistance used on boundary face k, m2K/W. */
+  surfaceResistance(k: number): number {
+    return this.rs[k];
+  }
+
   /** Surface temperature of boundary face k. */
   surface(k: number): number {
     const f = this.sys.faces;
@@ -64,12 +80,16 @@ export class TemperatureField {
 
   /** Temperature on side s (0 W, 1 E, 2 S, 3 N) of solid cell c. */
   face(c: number, s: number): number {
+    return this.faceOf(c, s, this.x, this.tz);
+  }
+
+  private faceOf(c: number, s: number, xv: Float64Array, tzv: ArrayLike<number>): number {
     const { mesh, unknownOf } = this.sys;
     const { nx, ny, xs, ys, owner } = mesh;
-    const tp = this.cell(c);
+    const tp = xv[unknownOf[c]];
     const i = c % nx, j = (c - i) / nx;
     const k = this.faceAt[c * 4 + s];
-    if (k >= 0) return this.surface(k);
+    if (k >= 0) return this.surfaceWith(k, xv, tzv);
     const ii = s === 0 ? i - 1 : s === 1 ? i + 1 : i, jj = s === 2 ? j - 1 : s === 3 ? j + 1 : j;
     if (ii < 0 || jj < 0 || ii >= nx || jj >= ny) return tp;
     const d = jj * nx + ii;
@@ -77,7 +97,7 @@ export class TemperatureField {
     const hp = s < 2 ? (xs[i + 1] - xs[i]) / 2 : (ys[j + 1] - ys[j]) / 2;
     const hq = s < 2 ? (xs[ii + 1] - xs[ii]) / 2 : (ys[jj + 1] - ys[jj]) / 2;
     const kp = this.lambda[owner[c]] / hp, kq = this.lambda[owner[d]] / hq;
-    return (kp * tp + kq * this.cell(d)) / (kp + kq);
+    return (kp * tp + kq * xv[unknownOf[d]]) / (kp + kq);
   }
 
   /**
@@ -85,6 +105,15 @@ export class TemperatureField {
    * highest conductivity is used (its reconstruction is the most nearly linear).
    */
   at(x: number, y: number): number {
+    const v = this.atOf(x, y, this.x, this.tz);
+    // The reconstruction is linear in x and y from the cell centre; off both centre lines near a
+    // warm or cold corner it can pass the range of the solution, so it is limited to that range
+    // (cells and zones on the faces), which keeps the maximum principle at every point.
+    return Number.isNaN(v) ? v : Math.min(Math.max(v, this.lo), this.hi);
+  }
+
+  /** at() for another set of temperatures, without the range limit (linear in the set). */
+  private atOf(x: number, y: number, xv: Float64Array, tzv: ArrayLike<number>): number {
     const { nx, ny, xs, ys, xc, yc, owner } = this.sys.mesh;
     const tol = 1e-9;
     const iCand = candidates(xs, x, tol, nx), jCand = candidates(ys, y, tol, ny);
@@ -98,18 +127,168 @@ export class TemperatureField {
     for (const j of jCand) for (const i of iCand) {
       const c = j * nx + i;
       if (this.sys.unknownOf[c] < 0 || this.lambda[owner[c]] !== bestLambda) continue;
-      const tp = this.cell(c);
+      const tp = xv[this.sys.unknownOf[c]];
       const hx = (xs[i + 1] - xs[i]) / 2, hy = (ys[j + 1] - ys[j]) / 2;
       const fx = (x - xc[i]) / hx, fy = (y - yc[j]) / hy;
-      const tx = fx >= 0 ? this.face(c, 1) : this.face(c, 0);
-      const ty = fy >= 0 ? this.face(c, 3) : this.face(c, 2);
+      const tx = fx >= 0 ? this.faceOf(c, 1, xv, tzv) : this.faceOf(c, 0, xv, tzv);
+      const ty = fy >= 0 ? this.faceOf(c, 3, xv, tzv) : this.faceOf(c, 2, xv, tzv);
       sum += tp + Math.abs(fx) * (tx - tp) + Math.abs(fy) * (ty - tp);
       count++;
     }
-    // The reconstruction is linear in x and y from the cell centre; off both centre lines near a
-    // warm or cold corner it can pass the range of the solution, so it is limited to that range
-    // (cells and zones on the faces), which keeps the maximum principle at every point.
-    return Math.min(Math.max(sum / count, this.lo), this.hi);
+    return sum / count;
+  }
+
+  /** Lowest and highest temperature of this solution (cells and zones on its faces). */
+  range(): [number, number] {
+    return [this.lo, this.hi];
+  }
+
+  /**
+   * Temperature at grid node (i0, j0), for each set, where a surface ends at a corner or meets another
+   * part. The cell-centred solution has no value there, and next to a corner the field changes over
+   * less than a cell (a conductive part touching the surface at a point, a surface that turns, a
+   * surface condition that changes), so reading the centre of the first face makes the answer move
+   * with the cell size. Instead: the NODE_PATCH_CELLS coarse cells on each side of the node are split
+   * NODE_PATCH_SPLIT times in each direction (same materials, zones and surface resistances: every
+   * part edge is a grid line), the patch is solved with the coarse solution's face-level
+   * temperatures on its cut edges (fixed values: the point reconstruction, at()), and the node value is
+   * the planar extrapolation, from the centre and the two faces meeting at the node, of the adjacent
+   * sub-cell of highest conductivity (the segment's own cell, `prefer`, on a tie). Linear in the set
+   * (weights from unit solutions add up); exact for a 1-D field. NaN when the patch has no fixed value.
+   */
+  nodeTemperatures(i0: number, j0: number, prefer: number, sets: readonly TemperatureSet[]): number[] {
+    const { mesh, unknownOf, faces } = this.sys;
+    const { nx, ny, xs, ys, owner } = mesh;
+    const P = NODE_PATCH_CELLS, K = NODE_PATCH_SPLIT;
+    const ia = Math.max(0, i0 - P), ib = Math.min(nx, i0 + P), ja = Math.max(0, j0 - P), jb = Math.min(ny, j0 + P);
+    const mx = (ib - ia) * K, my = (jb - ja) * K;
+    const sx = new Float64Array(mx + 1), sy = new Float64Array(my + 1);
+    for (let i = ia; i < ib; i++) for (let q = 0; q < K; q++) sx[(i - ia) * K + q] = xs[i] + ((xs[i + 1] - xs[i]) * q) / K;
+    sx[mx] = xs[ib];
+    for (let j = ja; j < jb; j++) for (let q = 0; q < K; q++) sy[(j - ja) * K + q] = ys[j] + ((ys[j + 1] - ys[j]) * q) / K;
+    sy[my] = ys[jb];
+    const coarse = (p: number, r: number) => (ja + ((r / K) | 0)) * nx + ia + ((p / K) | 0);
+    const idx = new Int32Array(mx * my).fill(-1);
+    let n = 0;
+    for (let r = 0; r < my; r++) for (let p = 0; p < mx; p++) if (unknownOf[coarse(p, r)] >= 0) idx[r * mx + p] = n++;
+    const nan = () => sets.map(() => NaN);
+    if (n === 0) return nan();
+    const bw = mx; // vertical neighbours are at most one sub-row apart in the unknown order
+    const w = bw + 1;
+    const band = new Float64Array(n * w);
+    // Fixed-value terms: sub-unknown, conductance, zone (>= 0) or a point on a cut edge (zone -1).
+    const bcU: number[] = [], bcG: number[] = [], bcZ: number[] = [], bcX: number[] = [], bcY: number[] = [];
+    const lam = (c: number) => this.lambda[owner[c]];
+    for (let r = 0; r < my; r++)
+      for (let p = 0; p < mx; p++) {
+        const m = idx[r * mx + p];
+        if (m < 0) continue;
+        const c = coarse(p, r), l = lam(c);
+        const hx = sx[p + 1] - sx[p], hy = sy[r + 1] - sy[r];
+        for (let s = 0; s < 4; s++) {
+          const pp = s === 0 ? p - 1 : s === 1 ? p + 1 : p, rr = s === 2 ? r - 1 : s === 3 ? r + 1 : r;
+          const len = s < 2 ? hy : hx, half = (s < 2 ? hx : hy) / (2 * l);
+          if (pp >= 0 && rr >= 0 && pp < mx && rr < my) {
+            const q = idx[rr * mx + pp];
+            if (q >= 0) {
+              const cq = coarse(pp, rr);
+              const g = len / (half + (s < 2 ? sx[pp + 1] - sx[pp] : sy[rr + 1] - sy[rr]) / (2 * lam(cq)));
+              band[m * w] += g;
+              if (q > m) band[m * w + (q - m)] -= g;
+              continue;
+            }
+          }
+          // Across a coarse face: a zone (surface resistance of that face), a cut edge of the patch, or adiabatic.
+          // (An unknown neighbour was handled above, so the neighbour is in another coarse cell.)
+          const inside = pp >= 0 && rr >= 0 && pp < mx && rr < my;
+          const k = this.faceAt[c * 4 + s];
+          if (k >= 0) {
+            const g = len / (this.rs[k] + half);
+            band[m * w] += g;
+            bcU.push(m); bcG.push(g); bcZ.push(faces.zone[k]); bcX.push(0); bcY.push(0);
+            continue;
+          }
+          if (inside) continue; // void
+          const i = c % nx, j = (c - i) / nx;
+          const ii = s === 0 ? i - 1 : s === 1 ? i + 1 : i, jj = s === 2 ? j - 1 : s === 3 ? j + 1 : j;
+          if (ii < 0 || jj < 0 || ii >= nx || jj >= ny || unknownOf[jj * nx + ii] < 0) continue;
+          const g = len / half;
+          band[m * w] += g;
+          bcU.push(m); bcG.push(g); bcZ.push(-1);
+          bcX.push(s === 0 ? sx[p] : s === 1 ? sx[p + 1] : 0.5 * (sx[p] + sx[p + 1]));
+          bcY.push(s === 2 ? sy[r] : s === 3 ? sy[r + 1] : 0.5 * (sy[r] + sy[r + 1]));
+        }
+      }
+    if (!bcU.length || !choleskyBand(band, n, bw)) return nan();
+    // The sub-cell at the node: highest conductivity, the segment's own cell on a tie.
+    const pn = (i0 - ia) * K, rn = (j0 - ja) * K;
+    let best = -1, bestL = -Infinity, bestP = 0, bestR = 0;
+    for (const [p, r] of [[pn - 1, rn - 1], [pn, rn - 1], [pn, rn], [pn - 1, rn]]) {
+      if (p < 0 || r < 0 || p >= mx || r >= my || idx[r * mx + p] < 0) continue;
+      const c = coarse(p, r), l = lam(c);
+      if (l > bestL || (l === bestL && c === prefer)) { best = idx[r * mx + p]; bestL = l; bestP = p; bestR = r; }
+    }
+    if (best < 0) return nan();
+    const b = new Float64Array(n);
+    return sets.map((set) => {
+      b.fill(0);
+      for (let t = 0; t < bcU.length; t++) b[bcU[t]] += bcG[t] * (bcZ[t] >= 0 ? set.tz[bcZ[t]] : this.atOf(bcX[t], bcY[t], set.x, set.tz));
+      solveBand(band, n, bw, b);
+      const sideX = bestP < pn ? 1 : 0, sideY = bestR < rn ? 3 : 2;
+      const subFace = (s: number): number => {
+        const p = bestP, r = bestR, tp = b[best];
+        const c = coarse(p, r), l = lam(c);
+        const pp = s === 0 ? p - 1 : s === 1 ? p + 1 : p, rr = s === 2 ? r - 1 : s === 3 ? r + 1 : r;
+        const hp = (s < 2 ? sx[p + 1] - sx[p] : sy[r + 1] - sy[r]) / 2;
+        if (pp >= 0 && rr >= 0 && pp < mx && rr < my) {
+          const q = idx[rr * mx + pp];
+          if (q >= 0) {
+            const hq = (s < 2 ? sx[pp + 1] - sx[pp] : sy[rr + 1] - sy[rr]) / 2;
+            const kp = l / hp, kq = lam(coarse(pp, rr)) / hq;
+            return (kp * tp + kq * b[q]) / (kp + kq);
+          }
+          if (owner[coarse(pp, rr)] > -2) return tp; // void
+        }
+        const k = this.faceAt[c * 4 + s];
+        if (k < 0) return tp;
+        const tzk = set.tz[faces.zone[k]], rs = this.rs[k];
+        return tzk + ((tp - tzk) * rs) / (rs + hp / l);
+      };
+      return subFace(sideX) + subFace(sideY) - b[best];
+    });
+  }
+}
+
+/** In-place Cholesky factor R (A = R^T R) of a symmetric band matrix stored by rows: a[i (bw + 1) + d] = A[i][i + d]. */
+function choleskyBand(a: Float64Array, n: number, bw: number): boolean {
+  const w = bw + 1;
+  for (let i = 0; i < n; i++) {
+    const kmin = Math.max(0, i - bw);
+    for (let d = 0; d <= bw && i + d < n; d++) {
+      const j = i + d;
+      let sum = a[i * w + d];
+      for (let k = Math.max(kmin, j - bw); k < i; k++) sum -= a[k * w + (i - k)] * a[k * w + (j - k)];
+      if (d === 0) {
+        if (!(sum > 0)) return false;
+        a[i * w] = Math.sqrt(sum);
+      } else a[i * w + d] = sum / a[i * w];
+    }
+  }
+  return true;
+}
+
+/** Solve R^T R x = b in place with the factor from choleskyBand. */
+function solveBand(a: Float64Array, n: number, bw: number, b: Float64Array): void {
+  const w = bw + 1;
+  for (let i = 0; i < n; i++) {
+    let s = b[i];
+    for (let k = Math.max(0, i - bw); k < i; k++) s -= a[k * w + (i - k)] * b[k];
+    b[i] = s / a[i * w];
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    let s = b[i];
+    for (let d = 1; d <= bw && i + d < n; d++) s -= a[i * w + d] * b[i + d];
+    b[i] = s / a[i * w];
   }
 }
 

@@ -10,6 +10,7 @@
  * and the grading next to it starts from h0, not from the membrane's thickness.
  */
 import type { Point } from '../section/geometry';
+import { pointInPolygon } from '../section/geometry';
 
 export type MeshLevel = 'preview' | 'default' | 'fine';
 
@@ -22,12 +23,17 @@ export interface MeshSpec {
   hmax: number;
   /** Largest cell in intervals spanned by ground only, m. */
   hmaxGround: number;
+  /**
+   * First cell next to the grid lines through a surface singular point (two zones meeting on a solid
+   * surface, or a solid touching a zone at a single corner), m; absent: h0 there too.
+   */
+  h0Point?: number;
 }
 
 export const MESH_LEVELS: Record<MeshLevel, MeshSpec> = {
-  preview: { h0: 0.008, growth: 1.5, hmax: 0.1, hmaxGround: 1.0 },
-  default: { h0: 0.004, growth: 1.3, hmax: 0.05, hmaxGround: 0.5 },
-  fine: { h0: 0.002, growth: 1.15, hmax: 0.025, hmaxGround: 0.25 },
+  preview: { h0: 0.008, growth: 1.5, hmax: 0.1, hmaxGround: 1.0, h0Point: 0.002 },
+  default: { h0: 0.004, growth: 1.3, hmax: 0.05, hmaxGround: 1.0, h0Point: 0.001 },
+  fine: { h0: 0.002, growth: 1.15, hmax: 0.025, hmaxGround: 0.25, h0Point: 0.0005 },
 };
 
 export interface GeometrySolid {
@@ -51,6 +57,11 @@ export interface Mesh {
   yc: Float64Array;
   /** Per cell (j nx + i): solid index >= 0, -1 void, -2 - z for zone z. */
   owner: Int32Array;
+  /**
+   * The solids' sloped edges (neither horizontal nor vertical), staircased on this grid: solid index
+   * per edge, and its end points (ax, ay, bx, by per edge). Absent when there are none.
+   */
+  sloped?: { solid: Int32Array; seg: Float64Array };
 }
 
 const MERGE = 1e-7;
@@ -59,7 +70,8 @@ const MERGE = 1e-7;
  * Cell sizes for an interval of length len, graded from both ends, or from one end only when the
  * other is the model's outer edge (an adiabatic cut plane, where nothing changes abruptly).
  */
-export function gradeInterval(len: number, h0: number, growth: number, hmax: number, gradeLeft = true, gradeRight = true): number[] {
+export function gradeInterval(len: number, h0: number, growth: number, hmax: number, gradeLeft = true, gradeRight = true, h0Right = h0): number[] {
+  if (h0Right !== h0) return gradeUneven(len, h0, h0Right, growth, hmax, gradeLeft, gradeRight);
   const hm = Math.max(hmax, h0);
   if (len <= h0 * 1.5) return [len];
   if (!gradeLeft && !gradeRight) {
@@ -97,8 +109,32 @@ export function gradeInterval(len: number, h0: number, growth: number, hmax: num
   return sizes.map((s) => s * f);
 }
 
-function lines(keys: number[], spans: { lo: number; hi: number }[], spec: MeshSpec): Float64Array {
+/**
+ * gradeInterval with different first cells at the two ends (hl0 at the left, hr0 at the right): the
+ * end with the smaller next cell grows first, so the two sequences meet at matching sizes; scaled to
+ * fit. Computed with the smaller end on the left and reversed otherwise, so a mirrored interval gets
+ * mirrored cells.
+ */
+function gradeUneven(len: number, hl0: number, hr0: number, growth: number, hmax: number, gradeLeft: boolean, gradeRight: boolean): number[] {
+  if (!gradeLeft || !gradeRight) return gradeInterval(len, gradeLeft ? hl0 : hr0, growth, hmax, gradeLeft, gradeRight);
+  if (hl0 > hr0) return gradeUneven(len, hr0, hl0, growth, hmax, true, true).reverse();
+  if (len <= hl0 * 1.5) return [len];
+  const hm = Math.max(hmax, hl0);
+  const left: number[] = [], right: number[] = [];
+  let sl = 0, sr = 0, hl = hl0, hr = hr0;
+  while (sl + sr < len) {
+    if (hl <= hr) { left.push(hl); sl += hl; hl = Math.min(hl * growth, hm); }
+    else { right.push(hr); sr += hr; hr = Math.min(hr * growth, hm); }
+  }
+  const sizes = left.concat(right.reverse());
+  const f = len / (sl + sr);
+  return sizes.map((v) => v * f);
+}
+
+function lines(keys: number[], spans: { lo: number; hi: number }[], spec: MeshSpec, points: number[] = []): Float64Array {
   keys.sort((a, b) => a - b);
+  const hp = spec.h0Point ?? spec.h0;
+  const h0At = (v: number) => (points.some((p) => Math.abs(p - v) <= MERGE) ? Math.min(hp, spec.h0) : spec.h0);
   const k: number[] = [];
   for (const v of keys) if (!k.length || v - k[k.length - 1] > MERGE) k.push(v);
   const out: number[] = [k[0]];
@@ -107,7 +143,7 @@ function lines(keys: number[], spans: { lo: number; hi: number }[], spec: MeshSp
     let hmax = spec.hmaxGround;
     for (const s of spans) if (s.lo < b - MERGE && s.hi > a + MERGE) { hmax = Math.min(hmax, spec.hmax); break; }
     let x = a;
-    const sizes = gradeInterval(b - a, spec.h0, spec.growth, hmax, i > 0, i + 2 < k.length);
+    const sizes = gradeInterval(b - a, h0At(a), spec.growth, hmax, i > 0, i + 2 < k.length, h0At(b));
     for (let j = 0; j < sizes.length - 1; j++) out.push((x += sizes[j]));
     out.push(b);
   }
@@ -166,7 +202,8 @@ export function buildMesh(solids: readonly GeometrySolid[], zones: readonly Geom
     if (sloped || b - a <= d - c) spanX.push({ lo: a, hi: b });
     if (sloped || d - c <= b - a) spanY.push({ lo: c, hi: d });
   }
-  const xs = lines(kx, spanX, spec), ys = lines(ky, spanY, spec);
+  const sing = spec.h0Point !== undefined && spec.h0Point < spec.h0 ? singularPoints(solids, zones, kx, ky, loX, hiX, loY, hiY) : [];
+  const xs = lines(kx, spanX, spec, sing.map((p) => p[0])), ys = lines(ky, spanY, spec, sing.map((p) => p[1]));
   const nx = xs.length - 1, ny = ys.length - 1;
   const xc = new Float64Array(nx), yc = new Float64Array(ny);
   for (let i = 0; i < nx; i++) xc[i] = 0.5 * (xs[i] + xs[i + 1]);
@@ -196,5 +233,55 @@ export function buildMesh(solids: readonly GeometrySolid[], zones: readonly Geom
   };
   zones.forEach((z, i) => paint(z.polygon, -2 - i));
   solids.forEach((s, i) => paint(s.polygon, i));
-  return { nx, ny, xs, ys, xc, yc, owner };
+  const sSolid: number[] = [], sSeg: number[] = [];
+  solids.forEach((s, i) => s.polygon.forEach(([ax, ay], k) => {
+    const [bx, by] = s.polygon[(k + 1) % s.polygon.length];
+    if (Math.abs(bx - ax) > 1e-12 && Math.abs(by - ay) > 1e-12) { sSolid.push(i); sSeg.push(ax, ay, bx, by); }
+  }));
+  const sloped = sSolid.length ? { solid: Int32Array.from(sSolid), seg: Float64Array.from(sSeg) } : undefined;
+  return { nx, ny, xs, ys, xc, yc, owner, ...(sloped ? { sloped } : {}) };
+}
+
+/**
+ * Surface singular points: grid-line crossings where two different zones meet on a solid's surface
+ * (a zone junction: the surface condition jumps there), or where a solid touches a zone at one corner
+ * only (the quadrant diagonally opposite is the zone, the two beside it are neither). The field
+ * changes over a short distance there (about lambda Rs of the parts around the point, 1 to 10 mm),
+ * so the lines through them start from h0Point. Quadrants are sampled just off the crossing with the
+ * mesh's own rule (top solid, else top zone, else void).
+ */
+export function singularPoints(solids: readonly GeometrySolid[], zones: readonly GeometryZone[], kx: readonly number[], ky: readonly number[], loX: number, hiX: number, loY: number, hiY: number): Point[] {
+  const eps = 1e-6;
+  const ownerAt = (x: number, y: number): number => {
+    for (let s = solids.length - 1; s >= 0; s--) if (pointInPolygon(x, y, solids[s].polygon)) return s;
+    for (let z = zones.length - 1; z >= 0; z--) if (pointInPolygon(x, y, zones[z].polygon)) return -2 - z;
+    return -1;
+  };
+  const ux = uniqueSorted(kx), uy = uniqueSorted(ky);
+  const out: Point[] = [];
+  const q = [0, 0, 0, 0];
+  for (const x of ux) {
+    if (x <= loX + MERGE || x >= hiX - MERGE) continue;
+    for (const y of uy) {
+      if (y <= loY + MERGE || y >= hiY - MERGE) continue;
+      // Quadrants counter-clockwise: south-west, south-east, north-east, north-west.
+      q[0] = ownerAt(x - eps, y - eps); q[1] = ownerAt(x + eps, y - eps); q[2] = ownerAt(x + eps, y + eps); q[3] = ownerAt(x - eps, y + eps);
+      let hit = false;
+      const anySolid = q[0] >= 0 || q[1] >= 0 || q[2] >= 0 || q[3] >= 0;
+      for (let i = 0; i < 4 && !hit; i++) {
+        const a = q[i], b = q[(i + 1) & 3], c = q[(i + 2) & 3], d = q[(i + 3) & 3];
+        if (anySolid && a <= -2 && b <= -2 && a !== b) hit = true;
+        else if (a >= 0 && c <= -2 && b !== a && b !== c && d !== a && d !== c) hit = true;
+      }
+      if (hit) out.push([x, y]);
+    }
+  }
+  return out;
+}
+
+function uniqueSorted(v: readonly number[]): number[] {
+  const s = [...v].sort((a, b) => a - b);
+  const out: number[] = [];
+  for (const x of s) if (!out.length || x - out[out.length - 1] > MERGE) out.push(x);
+  return out;
 }

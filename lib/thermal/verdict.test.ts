@@ -150,3 +150,36 @@ describe('three zones', () => {
     expect(r.surfaces.some((q) => q.zoneId === 'attic')).toBe(true);
   });
 });
+
+describe('coldest point at a corner where a conductive part touches the room at one point', () => {
+  // Concrete (lambda 2.3) in the south-west quadrant, cold on its outer faces; insulation (0.035) in
+  // the south-east and north-west quadrants; the room in the north-east one. The concrete touches the
+  // room only at the origin, so the coldest room surface is at that corner and the surface
+  // temperature changes steeply away from it (our own case; the reference is a much finer mesh).
+  const s = buildSection(
+    [{ id: 'concrete', lambda: 2.3 }, { id: 'foam', lambda: 0.035 }],
+    [
+      { material: 'concrete', points: rect(-0.2, -0.2, 0, 0) },
+      { material: 'foam', points: rect(0, -0.2, 0.2, 0) },
+      { material: 'foam', points: rect(-0.2, 0, 0, 0.2) },
+    ],
+    [
+      { id: 'room', kind: 'indoor', rect: [0, 0, 0.2, 0.2], t: 20, rh: 50, tMonth: 20, rhMonth: 50 },
+      { id: 'out', kind: 'outdoor', points: [[-0.3, -0.3], [0.2, -0.3], [0.2, -0.2], [-0.2, -0.2], [-0.2, 0.2], [-0.3, 0.2]], t: -10, tMonth: -10 },
+    ],
+  );
+  const cold = (mesh: NonNullable<Parameters<typeof solveSectionSync>[1]>['mesh']) => solveSectionSync(s, { mesh, omitField: true }).coldest!;
+
+  it('is read at the corner node and agrees with a much finer mesh to 0.05 K at the default and fine levels', () => {
+    const ref = cold({ h0: 0.00025, growth: 1.1, hmax: 0.01, hmaxGround: 0.01, h0Point: 0.0000625 });
+    const d = cold('default'), f = cold('fine');
+    for (const c of [d, f, ref]) {
+      expect(Math.abs(c.at[0])).toBeLessThan(1e-9);
+      expect(Math.abs(c.at[1])).toBeLessThan(1e-9);
+    }
+    expect(Math.abs(d.t - ref.t)).toBeLessThan(0.05);
+    expect(Math.abs(f.t - ref.t)).toBeLessThan(0.05);
+    // Superposition holds at the corner too.
+    expect(d.weights.room * 20 + d.weights.out * -10).toBeCloseTo(d.t, 6);
+  });
+});

@@ -156,6 +156,8 @@ export function buildSegments(inp: SegmentInput): SegmentOutput {
     return faceTempWith(fieldDesign, c, s, u);
   };
   let verdict: SurfaceState = 'fine';
+  const [dLo, dHi] = fieldDesign.range(), [mLo, mHi] = fieldMonth.range();
+  const sets = [{ x: fieldDesign.x, tz: fieldDesign.tz }, { x: fieldMonth.x, tz: fieldMonth.tz }];
   runs.forEach((r, idx) => {
     const air = airs[r.zone]!;
     let kMin = 0, kMinM = 0, sum = 0, L = 0;
@@ -165,16 +167,52 @@ export function buildSegments(inp: SegmentInput): SegmentOutput {
       sum += r.tDesign[k] * r.len[k];
       L += r.len[k];
     }
-    const tMin = r.tDesign[kMin], tMinMonth = r.tMonth[kMinM];
+    let tMin = r.tDesign[kMin], tMinMonth = r.tMonth[kMinM];
+    let at: [number, number] = r.horizontal ? [r.mid[kMin], ys[r.line]] : [xs[r.line], r.mid[kMin]];
+    let weightsAt: { i0: number; j0: number; c: number } | null = null;
+    // A visible surface's coldest point is often where it ends (a corner, or where it meets another
+    // part): read the surface temperature at the end nodes too (TemperatureField.nodeTemperatures),
+    // at each end where the surface does not get warmer toward the end over its last two faces
+    // (there the end cannot be the coldest point), and not on the steps of a staircased sloped edge.
+    if (r.kind === 'surface') {
+      const nf = r.ref.length;
+      for (const first of [true, false]) {
+        const e = first ? 0 : nf - 1, nb = first ? 1 : nf - 2;
+        if (nf > 1 && r.tDesign[e] > r.tDesign[nb] && r.tMonth[e] > r.tMonth[nb]) continue;
+        const k = r.ref[e], c = sys.cellOf[f.unknown[k]];
+        // The steps of a staircased sloped edge are not corners of the real surface.
+        if (f.rsScale[k] !== 1) continue;
+        const ci = c % nx, cj = (c - ci) / nx;
+        const i0 = r.horizontal ? (first ? ci : ci + 1) : r.line;
+        const j0 = r.horizontal ? r.line : first ? cj : cj + 1;
+        const [tD, tM] = fieldDesign.nodeTemperatures(i0, j0, c, sets);
+        if (!Number.isFinite(tD)) continue;
+        const d = Math.min(Math.max(tD, dLo), dHi), m = Math.min(Math.max(tM, mLo), mHi);
+        if (m < tMinMonth) tMinMonth = m;
+        if (d < tMin) {
+          tMin = d;
+          at = [xs[i0], ys[j0]];
+          weightsAt = { i0, j0, c };
+        }
+      }
+    }
     const dp = dewPoint(air.design.t, air.design.rh);
     const ml = mouldLimit(air.month.t, air.month.rh);
     const rhS = (air.month.rh * pSat(air.month.t)) / pSat(tMinMonth);
     const state: SurfaceState = tMin < dp ? 'condensation' : rhS >= MOULD_RH ? 'mould risk' : 'fine';
     if (RANK[state] > RANK[verdict]) verdict = state;
     const weights: Record<string, number> = {};
-    for (const z of inp.touch) weights[zones[z].zoneId] = unitTemp(r.ref[kMin], z);
+    if (weightsAt) {
+      // Unit solutions (each zone at 1 K, the others at 0) read at the same node, in one patch solve.
+      const unitSets = inp.touch.map((z) => {
+        const tz = new Float64Array(zones.length);
+        tz[z] = 1;
+        return { x: unit(z), tz };
+      });
+      const w = fieldDesign.nodeTemperatures(weightsAt.i0, weightsAt.j0, weightsAt.c, unitSets);
+      inp.touch.forEach((z, q) => { weights[zones[z].zoneId] = w[q]; });
+    } else for (const z of inp.touch) weights[zones[z].zoneId] = unitTemp(r.ref[kMin], z);
     const fRsi = inp.twoZone && inp.indoor !== null ? weights[zones[inp.indoor].zoneId] : null;
-    const at: [number, number] = r.horizontal ? [r.mid[kMin], ys[r.line]] : [xs[r.line], r.mid[kMin]];
     const from: [number, number] = r.horizontal ? [r.lo, ys[r.line]] : [xs[r.line], r.lo];
     const to: [number, number] = r.horizontal ? [r.hi, ys[r.line]] : [xs[r.line], r.hi];
     const solid = resolved.solids[r.solid];

@@ -3,8 +3,9 @@
  * an angle alpha is one-dimensional in its own frame, so Phi = L (theta_i - theta_e) / (Rsi + d/lambda + Rse)
  * exactly (ISO 6946 series resistances). On the rectilinear mesh its faces become staircases whose
  * total face length is L (|cos alpha| + |sin alpha|): the conduction error falls with the cell size
- * (first order), but a surface resistance applied per staircase face acts like
- * Rs / (|cos alpha| + |sin alpha|), which does not fall with the cell size.
+ * (first order). A full surface resistance on each staircase face would act like
+ * Rs / (|cos alpha| + |sin alpha|), which does not fall with the cell size; assembly scales each such
+ * face's Rs by |cos alpha| + |sin alpha| (BoundaryFaces.rsScale), which removes it.
  */
 import type { Point } from '../section/geometry';
 import type { SectionSnapshot } from '../section/schema';
@@ -38,7 +39,7 @@ export function tiltedExactPhi(w: TiltedWall): number {
   return (w.L * 30) / (w.rsi + w.d / w.lambda + w.rse);
 }
 
-/** The staircase's effect on the surface resistances alone: Phi with Rs / (|cos| + |sin|). */
+/** Phi with Rs / (|cos| + |sin|): a full Rs on every staircase face (without assembly's scaling). */
 export function tiltedStaircasePhi(w: TiltedWall): number {
   const a = (w.degrees * Math.PI) / 180;
   const k = Math.abs(Math.cos(a)) + Math.abs(Math.sin(a));
