@@ -10,7 +10,7 @@
 import { JacobiPreconditioner } from '../lib/thermal/preconditioner';
 import type { Preconditioner } from '../lib/thermal/preconditioner';
 import { GridVCycle } from '../lib/thermal/gmg/cycle';
-import { buildGridHierarchy } from '../lib/thermal/gmg/hierarchy';
+import { buildGridHierarchy, meshWidths } from '../lib/thermal/gmg/hierarchy';
 import type { GridHierarchy } from '../lib/thermal/gmg/hierarchy';
 import { assemble, faceConductances, operatorWith, zoneFlows } from '../lib/thermal/assemble';
 import type { Csr } from '../lib/thermal/csr';
@@ -104,7 +104,7 @@ function matvecMs(a: Csr): number {
 }
 
 function hierarchyDescription(h: GridHierarchy): string {
-  return `${h.levels.length} levels (${h.levels.map((l) => `${l.nx}x${l.ny}`).join(', ')}; unknowns ${h.sizes.join(', ')}), ${h.smoother} smoother, coarsest factor bandwidth ${h.coarse.bw}, operator complexity ${h.operatorComplexity.toFixed(2)}`;
+  return `${h.levels.length} levels (${h.levels.map((l) => `${l.nx}x${l.ny}`).join(', ')}; unknowns ${h.sizes.join(', ')}), smoothers ${h.smoothers.join(', ')}, coarsest factor bandwidth ${h.coarse.bw}, operator complexity ${h.operatorComplexity.toFixed(2)}`;
 }
 
 interface GridRow {
@@ -135,7 +135,7 @@ function runGrid(target: number): GridRow {
   const g = faceConductances(sys, pr.rules, 'heat', 0.25);
   const a = operatorWith(sys, g);
   const t2 = now();
-  const h = buildGridHierarchy(a, sys.cellOf, mesh.nx, mesh.ny);
+  const h = buildGridHierarchy(a, sys.cellOf, mesh.nx, mesh.ny, { widths: meshWidths(mesh.xs, mesh.ys) });
   const pre = new GridVCycle(h);
   const t3 = now();
   // Reference flows: the same preconditioner run to a tight residual (not timed).

@@ -12,7 +12,7 @@ import { resolveSection } from '../section/resolve';
 import type { ResolvedSection } from '../section/resolve';
 import type { SectionSnapshot } from '../section/schema';
 import { GridVCycle } from './gmg/cycle';
-import { buildGridHierarchy } from './gmg/hierarchy';
+import { buildGridHierarchy, meshWidths } from './gmg/hierarchy';
 import type { ThermalSystem } from './assemble';
 import { assemble, faceConductances, operatorWith, zoneFlows } from './assemble';
 import { TemperatureField } from './field';
@@ -156,7 +156,7 @@ export function* solveSectionSteps(snapshot: SectionSnapshot, options: SolveOpti
   let sameRuns = true;
   for (let f = 0; f < gHeat.length; f++) if (gHeat[f] !== gSurf[f]) { sameRuns = false; break; }
   const aHeat = operatorWith(sys, gHeat);
-  const hierarchy = buildGridHierarchy(aHeat, sys.cellOf, mesh.nx, mesh.ny);
+  const hierarchy = buildGridHierarchy(aHeat, sys.cellOf, mesh.nx, mesh.ny, { widths: meshWidths(mesh.xs, mesh.ys) });
   const pre = new GridVCycle(hierarchy);
   const t3 = now();
 

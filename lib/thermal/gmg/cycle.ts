@@ -1,7 +1,8 @@
 /**
  * The grid V-cycle as a preconditioner for PCG on the solver's unknowns: z = M^-1 r with one
- * smoothing sweep before each coarse correction and its adjoint after (zebra alternating line
- * Gauss-Seidel by default, or point Gauss-Seidel forward then backward), restriction P^T and an
+ * smoothing sweep before each coarse correction and its adjoint after (per level: zebra
+ * alternating line Gauss-Seidel, or point Gauss-Seidel forward then backward on levels whose cells
+ * are all near square), restriction P^T and an
  * exact (banded Cholesky) coarsest solve, so M is symmetric positive definite.
  */
 import type { Preconditioner } from '../preconditioner';
@@ -31,13 +32,14 @@ export class GridVCycle implements Preconditioner {
     const next = h.levels[l + 1];
     const p = h.prolongators[l];
     lv.x.fill(0);
-    if (h.smoother === 'line') lineSmoothPre(lv, h.pivots[l]);
+    const piv = h.pivots[l];
+    if (piv) lineSmoothPre(lv, piv);
     else gaussSeidelForward(lv);
     // The line smoother ends on the odd columns, so the residual there is zero.
-    restrictResidual(lv, p, next.b, h.smoother === 'line');
+    restrictResidual(lv, p, next.b, piv !== null);
     this.cycle(l + 1);
     prolongAdd(lv, p, next.x);
-    if (h.smoother === 'line') lineSmoothPost(lv, h.pivots[l]);
+    if (piv) lineSmoothPost(lv, piv);
     else gaussSeidelBackward(lv);
   }
 }
