@@ -32,7 +32,7 @@ export interface MeshSpec {
 
 export const MESH_LEVELS: Record<MeshLevel, MeshSpec> = {
   preview: { h0: 0.008, growth: 1.5, hmax: 0.1, hmaxGround: 1.0, h0Point: 0.002 },
-  default: { h0: 0.004, growth: 1.3, hmax: 0.05, hmaxGround: 1.0, h0Point: 0.002 },
+  default: { h0: 0.004, growth: 1.3, hmax: 0.05, hmaxGround: 1.0, h0Point: 0.001 },
   fine: { h0: 0.002, growth: 1.15, hmax: 0.025, hmaxGround: 0.25, h0Point: 0.0005 },
 };
 
