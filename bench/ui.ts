@@ -12,7 +12,8 @@
  * Ratios are taken within the same run (drag frame vs idle frame, refresh interval vs preview solve time).
  *
  * The server is started the way playwright.config.ts starts it (built app, loopback, its own SQLite
- * file), unless DEWLINE_URL names a running one. Options: --drag-ms 3000, --only NAME, --json FILE.
+ * file), unless DEWLINE_URL names a running one. Options: --drag-ms 3000, --only NAME, --json FILE,
+ * --profile (main-thread functions by self time), --trace FILE (a Chromium trace of the drag, summarised).
  */
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
@@ -33,6 +34,8 @@ const ONLY = arg('--only', '');
 const JSON_OUT = arg('--json', '');
 /** --profile: also print the page's main-thread functions by self time during the drag (CDP profiler). */
 const PROFILE = process.argv.includes('--profile');
+/** --trace FILE: also write a Chromium trace of the drag (main-thread tasks, painting, compositing) to FILE (one case). */
+const TRACE = arg('--trace', '');
 const TARGET_RPS = 10;
 const TARGET_TASK_MS = 50;
 
@@ -86,7 +89,7 @@ const INSTALL = `(() => {
     const l = window.__dewline.live;
     if (l && l.refreshes !== b.last) {
       b.last = l.refreshes;
-      b.results.push({ at: l.at, mesh: l.mesh, version: l.version, ms: l.ms, cells: l.cells });
+      b.results.push({ at: l.at, mesh: l.mesh, version: l.version, ms: l.ms, cells: l.cells, toWorkerMs: l.toWorkerMs, backMs: l.backMs });
     }
     requestAnimationFrame(tick);
   }
@@ -108,6 +111,9 @@ interface Figures {
   previewResults: number;
   previewSolveMsMedian: number;
   previewCells: number;
+  /** Median of request posted -> solve started in the worker, and result posted -> handled by the page, ms. */
+  toWorkerMsMedian: number;
+  backMsMedian: number;
   defaultSolveMs: number;
   defaultCells: number;
   dragMs: number;
@@ -150,6 +156,7 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
     await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
     await cdp.send('Profiler.start');
   }
+  if (TRACE) await page.context().browser()!.startTracing(page, { path: TRACE, categories: ['devtools.timeline', 'toplevel', 'cc', 'blink', 'v8.execute', 'disabled-by-default-devtools.timeline'] });
   const t0 = await page.evaluate(() => performance.now());
   await page.mouse.down();
   // A slow drag, right then back left, one move every 16 ms or so, 1 px per move.
@@ -163,11 +170,15 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
   }
   const t1 = await page.evaluate(() => performance.now());
   if (cdp) printProfile((await cdp.send('Profiler.stop')).profile as unknown as CpuProfile);
+  if (TRACE) {
+    await page.context().browser()!.stopTracing();
+    printTrace(TRACE);
+  }
   await page.mouse.move(fb.x + 12, fb.y);
   await page.mouse.up();
   if (!baseline) await waitSettled(page);
   await page.waitForTimeout(200);
-  const b = await page.evaluate(() => (window as unknown as { __bench: { frames: number[]; tasks: { at: number; ms: number }[]; results: { at: number; mesh: string; version: number; ms: number; cells: number }[] } }).__bench);
+  const b = await page.evaluate(() => (window as unknown as { __bench: { frames: number[]; tasks: { at: number; ms: number }[]; results: { at: number; mesh: string; version: number; ms: number; cells: number; toWorkerMs?: number; backMs?: number }[] } }).__bench);
   const idle = intervals(b.frames.filter((t) => t < t0));
   const drag = intervals(b.frames.filter((t) => t >= t0 && t <= t1));
   const tasks = b.tasks.filter((x) => x.at + x.ms >= t0 && x.at <= t1);
@@ -188,6 +199,8 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
     previewResults: previews.length,
     previewSolveMsMedian: quantile(previews.map((r) => r.ms), 0.5),
     previewCells: previews.length ? previews[previews.length - 1].cells : NaN,
+    toWorkerMsMedian: quantile(previews.map((r) => r.toWorkerMs ?? NaN).filter(Number.isFinite), 0.5),
+    backMsMedian: quantile(previews.map((r) => r.backMs ?? NaN).filter(Number.isFinite), 0.5),
     defaultSolveMs: last?.ms ?? NaN,
     defaultCells: last?.cells ?? NaN,
     dragMs: t1 - t0,
@@ -210,13 +223,33 @@ function printProfile(p: CpuProfile) {
   for (const [k, ms] of [...byName].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${ms.toFixed(1).padStart(8)}  ${k}`);
 }
 
+/** Main-thread time by trace event during the drag, self time (children subtracted), largest first. */
+function printTrace(file: string) {
+  const raw = JSON.parse(fs.readFileSync(file, 'utf8')) as { traceEvents: { name: string; ph: string; ts: number; dur?: number; pid: number; tid: number; args?: { name?: string } }[] };
+  const ev = raw.traceEvents;
+  const main = ev.find((e) => e.ph === 'M' && e.name === 'thread_name' && e.args?.name === 'CrRendererMain');
+  if (!main) return;
+  const xs = ev.filter((e) => e.pid === main.pid && e.tid === main.tid && e.ph === 'X' && e.dur !== undefined).sort((a, b) => a.ts - b.ts || b.dur! - a.dur!);
+  const self = new Map<string, number>();
+  const stack: { end: number; name: string }[] = [];
+  for (const e of xs) {
+    while (stack.length && stack[stack.length - 1].end <= e.ts) stack.pop();
+    const parent = stack[stack.length - 1];
+    if (parent) self.set(parent.name, (self.get(parent.name) ?? 0) - e.dur! / 1000);
+    self.set(e.name, (self.get(e.name) ?? 0) + e.dur! / 1000);
+    stack.push({ end: e.ts + e.dur!, name: e.name });
+  }
+  console.log('main thread, trace events by self time during the drag (ms):');
+  for (const [k, ms] of [...self].sort((a, b) => b[1] - a[1]).slice(0, 20)) console.log(`  ${ms.toFixed(1).padStart(8)}  ${k}`);
+}
+
 const f1 = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : 'n/a');
 
 function report(all: Figures[]) {
   console.log(`\nbench:ui, Chromium ${CHROMIUM_VERSION}, ${os.cpus().length} CPU(s) (${os.cpus()[0]?.model ?? '?'}), viewport 1280x800, drag ${DRAG_MS} ms at one move per 16 ms`);
   console.log(`load average (1 min) at the start ${LOAD_START.toFixed(2)}, at the end ${os.loadavg()[0].toFixed(2)}: other work on the machine stretches every figure`);
   console.log('targets: >= 10 result refreshes per second while dragging; no main-thread task over 50 ms\n');
-  const head = ['section', 'parts', 'idle frame p50 ms', 'drag frame p50 / p95 / max ms', 'drag/idle p50', 'long tasks (longest ms)', 'refreshes/s', 'preview solve ms (cells)', 'refresh interval / solve', 'default solve ms (cells)'];
+  const head = ['section', 'parts', 'idle frame p50 ms', 'drag frame p50 / p95 / max ms', 'drag/idle p50', 'long tasks (longest ms)', 'refreshes/s', 'preview solve ms (cells)', 'refresh interval / solve', 'to worker / back to page ms', 'default solve ms (cells)'];
   console.log(head.join(' | '));
   for (const f of all) {
     const interval = f.refreshesPerSecond > 0 ? 1000 / f.refreshesPerSecond : NaN;
@@ -230,6 +263,7 @@ function report(all: Figures[]) {
       `${f.refreshesPerSecond.toFixed(2)} ${f.refreshesPerSecond >= TARGET_RPS ? 'meets' : 'below'} target`,
       `${f1(f.previewSolveMsMedian)} (${f.previewCells})`,
       f1(interval / f.previewSolveMsMedian),
+      `${f1(f.toWorkerMsMedian)} / ${f1(f.backMsMedian)}`,
       `${f1(f.defaultSolveMs)} (${f.defaultCells})`,
     ].join(' | '));
   }

@@ -120,7 +120,7 @@ export class LiveSession {
       if (e.type === 'cancel') this.post({ type: 'cancel', id: e.id });
       else {
         const o = this.options?.get();
-        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null });
+        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null, sentAt: performance.timeOrigin + performance.now() });
         this.patch({ busy: { mesh: e.req.mesh, elapsedMs: 0 } });
       }
     }
@@ -144,7 +144,10 @@ export class LiveSession {
       const drawn = this.controller?.section.get().version ?? version;
       const prev = this.state.get();
       this.patch({ results: m.results, field, version, stale: version !== drawn, mesh: req?.mesh ?? null, error: null, refreshes: prev.refreshes + 1, lastMs: m.ms, iso: m.iso ?? null });
-      expose(this, m.results, req?.mesh ?? null, version, m.ms);
+      // Delivery figures for the benchmark: request to solve start, and result posted to handled here.
+      const now = performance.timeOrigin + performance.now();
+      const lag = { toWorkerMs: m.startedAt !== undefined && m.sentAt !== undefined ? m.startedAt - m.sentAt : NaN, backMs: m.postedAt !== undefined ? now - m.postedAt : NaN };
+      expose(this, m.results, req?.mesh ?? null, version, m.ms, lag);
     } else if (m.type === 'error' && req) this.patch({ error: m.message });
     this.apply(this.sched.done(m.id));
     // A preview that finished after the release, or anything missed: make sure the drawing gets its default solve.
@@ -158,10 +161,10 @@ export class LiveSession {
   }
 }
 
-function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, version: number, ms: number) {
+function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, version: number, ms: number, lag: { toWorkerMs: number; backMs: number }) {
   if (typeof window === 'undefined') return;
   const w = window as unknown as { __dewline?: Record<string, unknown> };
   w.__dewline ??= {};
   w.__dewline.results = results;
-  w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), ms, cells: results.mesh.cells, snapshot: s.controller?.snapshot() };
+  w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), ms, cells: results.mesh.cells, ...lag, snapshot: s.controller?.snapshot() };
 }

@@ -1,34 +1,48 @@
 /// <reference lib="webworker" />
 /**
- * The solver worker: plain messages in and out. One solve at a time; a cancel message (or a newer solve)
- * aborts the running one between iterations. The last results of each mesh level warm-start the next.
+ * The solver worker: plain messages in and out. One solve at a time, by the policy in scheduler.ts
+ * (SolveQueue): a newer preview waits for the running preview and starts the moment it ends; a release
+ * or a cancel aborts the running solve between iterations. The last results of each mesh level
+ * warm-start the next.
  */
 import { solveSection } from '@/lib/thermal/section';
 import type { SectionResults } from '@/lib/thermal/types';
 import type { SectionSnapshot } from '@/lib/section/schema';
 import type { FromWorker, ToWorker } from './protocol';
+import type { QueueAction } from './scheduler';
+import { SolveQueue } from './scheduler';
 import { levels, rangeOf } from './colour';
 import { isotherms } from './contours';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
-let current: { id: number; token: { aborted: boolean } } | null = null;
+type SolveMessage = Extract<ToWorker, { type: 'solve' }>;
+const queue = new SolveQueue<SolveMessage>();
+const tokens = new Map<number, { aborted: boolean }>();
 const last: Partial<Record<string, SectionResults>> = {};
+const clock = () => performance.timeOrigin + performance.now();
 
 scope.onmessage = (e: MessageEvent<ToWorker>) => {
   const m = e.data;
-  if (m.type === 'cancel') {
-    if (current && current.id === m.id) current.token.aborted = true;
-    return;
-  }
-  if (m.type === 'solve') {
-    if (current) current.token.aborted = true;
-    void run(m.id, m.snapshot as SectionSnapshot, m.mesh, m.isoStep ?? null);
-  }
+  act(m.type === 'cancel' ? queue.cancel(m.id) : queue.solve(m));
 };
 
-async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'default' | 'fine', isoStep: number | null) {
+function act(actions: QueueAction<SolveMessage>[]) {
+  for (const a of actions) {
+    if (a.type === 'abort') {
+      const t = tokens.get(a.id);
+      if (t) t.aborted = true;
+    } else if (a.type === 'drop') post({ type: 'cancelled', id: a.id });
+    else void run(a.job);
+  }
+}
+
+async function run(m: SolveMessage) {
+  const { id, mesh } = m;
+  const snapshot = m.snapshot as SectionSnapshot;
+  const isoStep = m.isoStep ?? null;
   const token = { aborted: false };
-  current = { id, token };
+  tokens.set(id, token);
+  const startedAt = clock();
   const t0 = performance.now();
   const timer = setInterval(() => post({ type: 'progress', id, elapsedMs: performance.now() - t0 }), 250);
   try {
@@ -45,14 +59,17 @@ async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'def
       const range = rangeOf(results.zones.filter((z) => z.touches).map((z) => z.design.t));
       iso = { step: isoStep, lines: isotherms({ xs: results.field.xs, ys: results.field.ys, nx: results.field.xs.length - 1, ny: results.field.ys.length - 1, t }, levels(range, isoStep)) };
     }
-    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso }, [t.buffer]);
+    // The field goes over as a transferred buffer, not copied.
+    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso, sentAt: m.sentAt, startedAt, postedAt: clock() }, [t.buffer]);
   } catch (err) {
     const e = err as Error;
     if (e?.name === 'AbortError') post({ type: 'cancelled', id });
     else post({ type: 'error', id, message: e?.message ?? String(err) });
   } finally {
     clearInterval(timer);
-    if (current?.id === id) current = null;
+    tokens.delete(id);
+    // The waiting preview starts here at once, without a round trip through the page.
+    act(queue.finished(id));
   }
 }
 
