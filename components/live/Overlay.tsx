@@ -10,17 +10,20 @@ import { useBoard } from '@/components/board/Canvas';
 import { useStore, useStoreFields } from '@/components/board/store';
 import { toScreen } from '@/components/board/view';
 import { formatQuantity } from '@/lib/units';
+import type { ScreenView } from './colour';
 import { buildLut, levels, rangeOf, rasterize } from './colour';
 import { flowMarks, isotherms } from './contours';
 import type { LiveSession } from './session';
+import { RASTER_ALPHA } from './session';
 import { styleFor } from './segments';
 import type { LiveOptions } from './options';
 import { probeAt } from './probe';
 
 const LUT = buildLut();
+const sameView = (a: ScreenView, b: ScreenView) => a.k === b.k && a.ox === b.ox && a.oy === b.oy;
 
 /** What the overlay draws from: a solver progress message or a new request does not redraw it. */
-const SHOWN = ['results', 'field', 'iso', 'stale'] as const;
+const SHOWN = ['results', 'field', 'iso', 'stale', 'raster'] as const;
 
 export function LiveOverlay({ live, options }: { live: LiveSession; options: LiveOptions }) {
   const c = useBoard();
@@ -40,11 +43,17 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
     const w = Math.max(1, Math.floor(size.width)), h = Math.max(1, Math.floor(size.height));
     if (canvas.width !== w || canvas.height !== h) { canvas.width = w; canvas.height = h; }
     const ctx = canvas.getContext('2d')!;
-    if (!pixels.current || pixels.current.width !== w || pixels.current.height !== h) pixels.current = ctx.createImageData(w, h);
-    rasterize(st.field, range, LUT, v, w, h, pixels.current.data, 235);
-    ctx.putImageData(pixels.current, 0, 0);
+    const ras = st.raster;
+    if (ras && ras.width === w && ras.height === h && sameView(ras.view, v)) {
+      // Painted by the worker for this very view: copy it in.
+      ctx.putImageData(new ImageData(ras.pixels as Uint8ClampedArray<ArrayBuffer>, w, h), 0, 0);
+    } else {
+      if (!pixels.current || pixels.current.width !== w || pixels.current.height !== h) pixels.current = ctx.createImageData(w, h);
+      rasterize(st.field, range, LUT, v, w, h, pixels.current.data, RASTER_ALPHA);
+      ctx.putImageData(pixels.current, 0, 0);
+    }
     imgRef.current?.getLayer()?.batchDraw();
-  }, [canvas, st.field, range, v, size, opt.colours]);
+  }, [canvas, st.field, st.raster, range, v, size, opt.colours]);
 
   // The worker traces the isotherms with each solve; only a change of interval is traced here, once.
   const lines = useMemo(() => {

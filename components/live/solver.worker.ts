@@ -5,14 +5,15 @@
  * or a cancel aborts the running solve between iterations. The last results of each mesh level
  * warm-start the next.
  */
-import { solveSection } from '@/lib/thermal/section';
+import { solveSectionSteps } from '@/lib/thermal/section';
 import type { SectionResults } from '@/lib/thermal/types';
 import type { SectionSnapshot } from '@/lib/section/schema';
-import type { FromWorker, ToWorker } from './protocol';
+import type { FromWorker, Raster, ToWorker } from './protocol';
 import type { QueueAction } from './scheduler';
 import { SolveQueue } from './scheduler';
-import { levels, rangeOf } from './colour';
+import { buildLut, levels, rangeOf, rasterize } from './colour';
 import { isotherms } from './contours';
+import { channelPause, runSliced } from './drive';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 type SolveMessage = Extract<ToWorker, { type: 'solve' }>;
@@ -20,6 +21,8 @@ const queue = new SolveQueue<SolveMessage>();
 const tokens = new Map<number, { aborted: boolean }>();
 const last: Partial<Record<string, SectionResults>> = {};
 const clock = () => performance.timeOrigin + performance.now();
+const LUT = buildLut();
+const pause = channelPause();
 
 scope.onmessage = (e: MessageEvent<ToWorker>) => {
   const m = e.data;
@@ -48,7 +51,7 @@ async function run(m: SolveMessage) {
   try {
     // Preview solves start from the last preview; release solves start cold, so they equal `dewline solve` to the last digit.
     const warm = mesh === 'preview' ? last.preview ?? last.default ?? null : null;
-    const results = await solveSection(snapshot, { mesh, signal: token, warmStart: warm });
+    const results = await runSliced(solveSectionSteps(snapshot, { mesh, signal: token, warmStart: warm }), token, pause);
     last[mesh] = results;
     const t = new Float64Array(results.field.t.length);
     for (let k = 0; k < t.length; k++) { const v = results.field.t[k]; t[k] = v === null ? NaN : v; }
@@ -59,8 +62,19 @@ async function run(m: SolveMessage) {
       const range = rangeOf(results.zones.filter((z) => z.touches).map((z) => z.design.t));
       iso = { step: isoStep, lines: isotherms({ xs: results.field.xs, ys: results.field.ys, nx: results.field.xs.length - 1, ny: results.field.ys.length - 1, t }, levels(range, isoStep)) };
     }
-    // The field goes over as a transferred buffer, not copied.
-    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso, sentAt: m.sentAt, startedAt, postedAt: clock() }, [t.buffer]);
+    // The colours for the view the page had when it asked: the page only copies the pixels in.
+    let raster: Raster | null = null;
+    if (m.raster && m.raster.width > 0 && m.raster.height > 0) {
+      const { view, width, height, alpha } = m.raster;
+      const pixels = new Uint8ClampedArray(width * height * 4);
+      const range = rangeOf(results.zones.filter((z) => z.touches).map((z) => z.design.t));
+      rasterize({ xs: results.field.xs, ys: results.field.ys, nx: results.field.xs.length - 1, ny: results.field.ys.length - 1, t }, range, LUT, view, width, height, pixels, alpha);
+      raster = { view, width, height, alpha, pixels };
+    }
+    // The field and the pixels go over as transferred buffers, not copied.
+    const transfer: Transferable[] = [t.buffer];
+    if (raster) transfer.push(raster.pixels.buffer);
+    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso, raster, sentAt: m.sentAt, startedAt, postedAt: clock() }, transfer);
   } catch (err) {
     const e = err as Error;
     if (e?.name === 'AbortError') post({ type: 'cancelled', id });
