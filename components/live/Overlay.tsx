@@ -23,7 +23,7 @@ const LUT = buildLut();
 const sameView = (a: ScreenView, b: ScreenView) => a.k === b.k && a.ox === b.ox && a.oy === b.oy;
 
 /** What the overlay draws from: a solver progress message or a new request does not redraw it. */
-const SHOWN = ['results', 'field', 'iso', 'stale', 'raster'] as const;
+const SHOWN = ['results', 'field', 'iso', 'stale', 'raster', 'mesh'] as const;
 
 export function LiveOverlay({ live, options }: { live: LiveSession; options: LiveOptions }) {
   const c = useBoard();
@@ -125,16 +125,20 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
     );
   }, [r, v, system]);
   if (!r || !st.field) return null;
+  // Preview results (a drag under way) are drawn dimmed throughout, rather than dimmed and undimmed as
+  // each result catches up with the drawing and the next move leaves it behind (a redraw each time).
+  const dim = st.stale || st.mesh === 'preview';
+  const note = st.mesh === 'preview' ? 'Preview on a coarse mesh while you drag' : st.stale ? 'Updating: the colours show the previous drawing' : null;
   // One layer (one canvas for the compositor to take) for colours, lines and marks.
   return (
     <>
       <Layer listening={false}>
-        {opt.colours && <KImage ref={imgRef} image={canvas ?? undefined} x={0} y={0} width={size.width} height={size.height} opacity={st.stale ? 0.55 : 1} listening={false} />}
-        <Group x={v.ox} y={v.oy} scaleX={v.k} scaleY={-v.k} opacity={st.stale ? 0.6 : 1} listening={false}>
+        {opt.colours && <KImage ref={imgRef} image={canvas ?? undefined} x={0} y={0} width={size.width} height={size.height} opacity={dim ? 0.55 : 1} listening={false} />}
+        <Group x={v.ox} y={v.oy} scaleX={v.k} scaleY={-v.k} opacity={dim ? 0.6 : 1} listening={false}>
           {world}
         </Group>
         <Group listening={false}>{marksOnScreen}</Group>
-        {st.stale && <Text x={10} y={10} text="Updating: the colours show the previous drawing" fontSize={12} fill="#7a3b00" fontStyle="bold" listening={false} />}
+        {note && <Text x={10} y={10} text={note} fontSize={12} fill="#7a3b00" fontStyle="bold" listening={false} />}
       </Layer>
       <ProbeLayer live={live} />
     </>
