@@ -12,7 +12,9 @@
  * Ratios are taken within the same run (drag frame vs idle frame, refresh interval vs preview solve time).
  *
  * The server is started the way playwright.config.ts starts it (built app, loopback, its own SQLite
- * file), unless DEWLINE_URL names a running one. Options: --drag-ms 3000, --only NAME, --json FILE.
+ * file), unless DEWLINE_URL names a running one. Options: --drag-ms 3000, --only NAME, --json FILE,
+ * --profile (main-thread functions by self time), --trace FILE (a Chromium trace of the drag, summarised),
+ * --snap (drag with snapping on; by default Alt is held so every move changes the drawing).
  */
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
@@ -33,6 +35,10 @@ const ONLY = arg('--only', '');
 const JSON_OUT = arg('--json', '');
 /** --profile: also print the page's main-thread functions by self time during the drag (CDP profiler). */
 const PROFILE = process.argv.includes('--profile');
+/** --trace FILE: also write a Chromium trace of the drag (main-thread tasks, painting, compositing) to FILE (one case). */
+const TRACE = arg('--trace', '');
+/** --snap: drag with snapping on (grid and edges), as the tables before 2026-12-03 did; default: Alt held, no snapping. */
+const SNAP = process.argv.includes('--snap');
 const TARGET_RPS = 10;
 const TARGET_TASK_MS = 50;
 
@@ -77,16 +83,19 @@ async function startServer(): Promise<{ url: string; stop: () => void }> {
  * the bundler's helpers (tsx names functions) do not leak into the page.
  */
 const INSTALL = `(() => {
-  const b = (window.__bench = { frames: [], tasks: [], results: [], last: -1 });
+  const b = (window.__bench = { frames: [], tasks: [], results: [], drawn: [], last: -1, lastDrawn: -1 });
   new PerformanceObserver((list) => {
     for (const e of list.getEntries()) b.tasks.push({ at: e.startTime, ms: e.duration });
   }).observe({ type: 'longtask', buffered: false });
   function tick(t) {
     b.frames.push(t);
+    const c = window.__dewline.controller;
+    const dv = c ? c.section.get().version : -1;
+    if (dv !== b.lastDrawn) { b.lastDrawn = dv; b.drawn.push(t); }
     const l = window.__dewline.live;
     if (l && l.refreshes !== b.last) {
       b.last = l.refreshes;
-      b.results.push({ at: l.at, mesh: l.mesh, version: l.version, ms: l.ms, cells: l.cells });
+      b.results.push({ at: l.at, mesh: l.mesh, version: l.version, ms: l.ms, cells: l.cells, toWorkerMs: l.toWorkerMs, backMs: l.backMs });
     }
     requestAnimationFrame(tick);
   }
@@ -105,9 +114,14 @@ interface Figures {
   longTasks: number;
   longestTaskMs: number;
   refreshesPerSecond: number;
+  /** Distinct drawn states of the section per second during the drag (the snapped moves): the most results there can be. */
+  drawnPerSecond: number;
   previewResults: number;
   previewSolveMsMedian: number;
   previewCells: number;
+  /** Median of request posted -> solve started in the worker, and result posted -> handled by the page, ms. */
+  toWorkerMsMedian: number;
+  backMsMedian: number;
   defaultSolveMs: number;
   defaultCells: number;
   dragMs: number;
@@ -150,6 +164,11 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
     await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
     await cdp.send('Profiler.start');
   }
+  if (TRACE) await page.context().browser()!.startTracing(page, { path: TRACE, categories: ['devtools.timeline', 'toplevel', 'cc', 'blink', 'v8.execute', 'disabled-by-default-devtools.timeline'] });
+  // Alt held: no snapping, so every 1 px move changes the drawing (a snapped 1 px drag changes it only
+  // when the footing reaches the next grid step, about twice a second, which caps the refreshes instead
+  // of the board). --snap drags as the earlier tables did.
+  if (!SNAP) await page.keyboard.down('Alt');
   const t0 = await page.evaluate(() => performance.now());
   await page.mouse.down();
   // A slow drag, right then back left, one move every 16 ms or so, 1 px per move.
@@ -163,11 +182,16 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
   }
   const t1 = await page.evaluate(() => performance.now());
   if (cdp) printProfile((await cdp.send('Profiler.stop')).profile as unknown as CpuProfile);
+  if (TRACE) {
+    await page.context().browser()!.stopTracing();
+    printTrace(TRACE);
+  }
   await page.mouse.move(fb.x + 12, fb.y);
   await page.mouse.up();
+  if (!SNAP) await page.keyboard.up('Alt');
   if (!baseline) await waitSettled(page);
   await page.waitForTimeout(200);
-  const b = await page.evaluate(() => (window as unknown as { __bench: { frames: number[]; tasks: { at: number; ms: number }[]; results: { at: number; mesh: string; version: number; ms: number; cells: number }[] } }).__bench);
+  const b = await page.evaluate(() => (window as unknown as { __bench: { frames: number[]; tasks: { at: number; ms: number }[]; results: { at: number; mesh: string; version: number; ms: number; cells: number; toWorkerMs?: number; backMs?: number }[]; drawn: number[] } }).__bench);
   const idle = intervals(b.frames.filter((t) => t < t0));
   const drag = intervals(b.frames.filter((t) => t >= t0 && t <= t1));
   const tasks = b.tasks.filter((x) => x.at + x.ms >= t0 && x.at <= t1);
@@ -185,9 +209,12 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
     longTasks: tasks.length,
     longestTaskMs: tasks.length ? Math.max(...tasks.map((x) => x.ms)) : 0,
     refreshesPerSecond: previews.length / ((t1 - t0) / 1000),
+    drawnPerSecond: b.drawn.filter((t) => t >= t0 && t <= t1).length / ((t1 - t0) / 1000),
     previewResults: previews.length,
     previewSolveMsMedian: quantile(previews.map((r) => r.ms), 0.5),
     previewCells: previews.length ? previews[previews.length - 1].cells : NaN,
+    toWorkerMsMedian: quantile(previews.map((r) => r.toWorkerMs ?? NaN).filter(Number.isFinite), 0.5),
+    backMsMedian: quantile(previews.map((r) => r.backMs ?? NaN).filter(Number.isFinite), 0.5),
     defaultSolveMs: last?.ms ?? NaN,
     defaultCells: last?.cells ?? NaN,
     dragMs: t1 - t0,
@@ -210,13 +237,33 @@ function printProfile(p: CpuProfile) {
   for (const [k, ms] of [...byName].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${ms.toFixed(1).padStart(8)}  ${k}`);
 }
 
+/** Main-thread time by trace event during the drag, self time (children subtracted), largest first. */
+function printTrace(file: string) {
+  const raw = JSON.parse(fs.readFileSync(file, 'utf8')) as { traceEvents: { name: string; ph: string; ts: number; dur?: number; pid: number; tid: number; args?: { name?: string } }[] };
+  const ev = raw.traceEvents;
+  const main = ev.find((e) => e.ph === 'M' && e.name === 'thread_name' && e.args?.name === 'CrRendererMain');
+  if (!main) return;
+  const xs = ev.filter((e) => e.pid === main.pid && e.tid === main.tid && e.ph === 'X' && e.dur !== undefined).sort((a, b) => a.ts - b.ts || b.dur! - a.dur!);
+  const self = new Map<string, number>();
+  const stack: { end: number; name: string }[] = [];
+  for (const e of xs) {
+    while (stack.length && stack[stack.length - 1].end <= e.ts) stack.pop();
+    const parent = stack[stack.length - 1];
+    if (parent) self.set(parent.name, (self.get(parent.name) ?? 0) - e.dur! / 1000);
+    self.set(e.name, (self.get(e.name) ?? 0) + e.dur! / 1000);
+    stack.push({ end: e.ts + e.dur!, name: e.name });
+  }
+  console.log('main thread, trace events by self time during the drag (ms):');
+  for (const [k, ms] of [...self].sort((a, b) => b[1] - a[1]).slice(0, 20)) console.log(`  ${ms.toFixed(1).padStart(8)}  ${k}`);
+}
+
 const f1 = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : 'n/a');
 
 function report(all: Figures[]) {
-  console.log(`\nbench:ui, Chromium ${CHROMIUM_VERSION}, ${os.cpus().length} CPU(s) (${os.cpus()[0]?.model ?? '?'}), viewport 1280x800, drag ${DRAG_MS} ms at one move per 16 ms`);
+  console.log(`\nbench:ui, Chromium ${CHROMIUM_VERSION}, ${os.cpus().length} CPU(s) (${os.cpus()[0]?.model ?? '?'}), viewport 1280x800, drag ${DRAG_MS} ms at one move per 16 ms, ${SNAP ? 'snapping on' : 'Alt held (no snapping)'}`);
   console.log(`load average (1 min) at the start ${LOAD_START.toFixed(2)}, at the end ${os.loadavg()[0].toFixed(2)}: other work on the machine stretches every figure`);
   console.log('targets: >= 10 result refreshes per second while dragging; no main-thread task over 50 ms\n');
-  const head = ['section', 'parts', 'idle frame p50 ms', 'drag frame p50 / p95 / max ms', 'drag/idle p50', 'long tasks (longest ms)', 'refreshes/s', 'preview solve ms (cells)', 'refresh interval / solve', 'default solve ms (cells)'];
+  const head = ['section', 'parts', 'idle frame p50 ms', 'drag frame p50 / p95 / max ms', 'drag/idle p50', 'long tasks (longest ms)', 'refreshes/s', 'drawn states/s', 'preview solve ms (cells)', 'refresh interval / solve', 'to worker / back to page ms', 'default solve ms (cells)'];
   console.log(head.join(' | '));
   for (const f of all) {
     const interval = f.refreshesPerSecond > 0 ? 1000 / f.refreshesPerSecond : NaN;
@@ -228,8 +275,10 @@ function report(all: Figures[]) {
       f1(f.dragFrameP50 / f.idleFrameP50),
       `${f.longTasks} (${f1(f.longestTaskMs)})`,
       `${f.refreshesPerSecond.toFixed(2)} ${f.refreshesPerSecond >= TARGET_RPS ? 'meets' : 'below'} target`,
+      f.drawnPerSecond.toFixed(2),
       `${f1(f.previewSolveMsMedian)} (${f.previewCells})`,
       f1(interval / f.previewSolveMsMedian),
+      `${f1(f.toWorkerMsMedian)} / ${f1(f.backMsMedian)}`,
       `${f1(f.defaultSolveMs)} (${f.defaultCells})`,
     ].join(' | '));
   }

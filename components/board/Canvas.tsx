@@ -3,10 +3,11 @@
  * The drawing: Konva layers that never listen (the controller does its own hit-testing).
  * World layers carry the view transform (metres, y up, flipped here); the top layer draws in screen
  * pixels (handles, guides, dimensions, labels). While a drag is under way the moving parts get a layer
- * of their own between the parts below and above them, so the still parts are not redrawn.
+ * of their own between the parts below and above them, so the still parts are not redrawn, and while
+ * they only translate, that layer's canvas is shifted rather than redrawn (MovingLayer).
  */
 import type { ReactNode } from 'react';
-import { createContext, memo, useContext, useEffect, useMemo, useRef } from 'react';
+import { createContext, memo, useContext, useEffect, useLayoutEffect, useMemo, useRef } from 'react';
 import { Layer, Line, Rect, Shape, Stage, Text, Circle, Group } from 'react-konva';
 import type { FillPattern } from '@/lib/materials/material';
 import { lookupMaterial } from '@/lib/section/resolve';
@@ -15,6 +16,7 @@ import { formatLength, formatQuantity } from '@/lib/units';
 import type { BoardController, PointerInput, SectionState } from './controller';
 import { fillStyle, fillTile, TILE_RES, ZONE_STYLES } from './fills';
 import { boxOf } from './hit';
+import { rigidShift } from './rigid';
 import { useStore } from './store';
 import { gridSpacing, patternBucket, toScreen } from './view';
 
@@ -96,6 +98,47 @@ const SolidsLayer = memo(
   (a, b) => a.scale === b.scale && a.items.length === b.items.length && a.items.every((x, i) => x === b.items[i]),
 );
 
+/**
+ * The moving parts during a drag. While they only translate together (a move, not a resize), the layer
+ * keeps the drawing it made at the start and the compositor shifts its canvas (a CSS transform): no
+ * redraw of the pattern fills on every pointer move. It draws again when the shape changes, the view
+ * changes, or the shift passes a quarter of the screen (so parts that were off screen come into view).
+ */
+function MovingLayer({ items, scale }: { items: SolidItem[]; scale: number }) {
+  const c = useBoard();
+  const v = useStore(c.view);
+  const size = useStore(c.size);
+  const layer = useRef<import('konva/lib/Layer').Layer | null>(null);
+  const base = useRef<{ items: SolidItem[]; view: typeof v } | null>(null);
+  let shift = base.current && base.current.view === v ? rigidShift(base.current.items, items) : null;
+  if (shift && (Math.abs(shift[0] * v.k) > size.width / 4 || Math.abs(shift[1] * v.k) > size.height / 4)) shift = null;
+  if (!shift) {
+    base.current = { items, view: v };
+    shift = [0, 0];
+  }
+  const drawn = base.current!.items;
+  const [sx, sy] = [shift[0] * v.k, -shift[1] * v.k];
+  useLayoutEffect(() => {
+    const el = layer.current?.getCanvas()._canvas;
+    if (el) el.style.transform = sx || sy ? `translate(${sx}px, ${sy}px)` : '';
+  });
+  return (
+    <Layer ref={layer} x={v.ox} y={v.oy} scaleX={v.k} scaleY={-v.k} listening={false}>
+      <MovingShapes items={drawn} scale={scale} />
+    </Layer>
+  );
+}
+
+const MovingShapes = memo(function MovingShapes({ items, scale }: { items: SolidItem[]; scale: number }) {
+  return (
+    <>
+      {items.map((it) => (
+        <SolidShape key={it.key} item={it} scale={scale} />
+      ))}
+    </>
+  );
+});
+
 function PartsLayers() {
   const c = useBoard();
   const items = useSolidItems(c);
@@ -110,7 +153,7 @@ function PartsLayers() {
   return (
     <>
       <SolidsLayer items={below as SolidItem[]} scale={scale} />
-      <SolidsLayer items={active as SolidItem[]} scale={scale} />
+      <MovingLayer items={active as SolidItem[]} scale={scale} />
       <SolidsLayer items={above as SolidItem[]} scale={scale} />
     </>
   );

@@ -2,7 +2,7 @@
 /** The side column: legend, readout, conditions, compare and the caution. Every number goes through lib/units. */
 import { useState } from 'react';
 import { useBoard } from '@/components/board/Canvas';
-import { useStore } from '@/components/board/store';
+import { useStore, useStoreFields } from '@/components/board/store';
 import { Caution } from '@/components/Caution';
 import * as ops from '@/lib/section/ops';
 import type { ZoneRecord } from '@/lib/section/schema';
@@ -30,7 +30,7 @@ function Row({ label, value, id }: { label: string; value: string; id?: string }
 
 export function LiveAside({ live, options }: { live: LiveSession; options: LiveOptions }) {
   const c = useBoard();
-  const st = useStore(live.state);
+  const st = useStoreFields(live.state, READOUT);
   const ui = useStore(c.ui);
   const opt = useStore(options);
   const base = useStore(live.baseline);
@@ -45,10 +45,7 @@ export function LiveAside({ live, options }: { live: LiveSession; options: LiveO
     <section data-testid="live-readout" data-stale={st.stale ? 'yes' : 'no'} data-version={st.version} aria-label="Heat-flow results">
       <div style={{ ...box, display: 'flex', gap: 6, flexWrap: 'wrap', alignItems: 'center' }}>
         <strong style={{ marginRight: 'auto' }}>Heat flow</strong>
-        <span data-testid="live-status" style={{ color: st.stale ? '#8a4b00' : '#2b6a4a' }}>
-          {st.error ? `Solver: ${st.error}` : st.busy ? `solving (${st.busy.mesh}) ${(st.busy.elapsedMs / 1000).toFixed(1)} s` : st.stopped ? 'stopped' : st.stale ? 'stale' : r ? `up to date (${st.mesh} mesh)` : 'waiting'}
-        </span>
-        {st.busy ? <button type="button" onClick={() => live.stop()} data-testid="live-stop">Stop</button> : st.stopped ? <button type="button" onClick={() => live.resume()}>Solve</button> : null}
+        <Status live={live} />
       </div>
       <div style={box}>
         <label><input type="checkbox" checked={opt.colours} onChange={(e) => options.set({ ...opt, colours: e.target.checked })} data-testid="live-colours" /> temperature colours</label>{' '}
@@ -106,6 +103,23 @@ export function LiveAside({ live, options }: { live: LiveSession; options: LiveO
       </div>
       <Conditions sys={sys} />
     </section>
+  );
+}
+
+/** What the readout shows; the solver's progress (busy) is read by the status line alone. */
+const READOUT = ['results', 'stale', 'version', 'lastMs'] as const;
+const STATUS = ['busy', 'error', 'stopped', 'stale', 'results', 'mesh'] as const;
+
+/** The solver's state: re-rendered on every progress message, and nothing else is. */
+function Status({ live }: { live: LiveSession }) {
+  const st = useStoreFields(live.state, STATUS);
+  return (
+    <>
+      <span data-testid="live-status" style={{ color: st.stale ? '#8a4b00' : '#2b6a4a' }}>
+        {st.error ? `Solver: ${st.error}` : st.busy ? `solving (${st.busy.mesh}) ${(st.busy.elapsedMs / 1000).toFixed(1)} s` : st.stopped ? 'stopped' : st.stale ? 'stale' : st.results ? `up to date (${st.mesh} mesh)` : 'waiting'}
+      </span>
+      {st.busy ? <button type="button" onClick={() => live.stop()} data-testid="live-stop">Stop</button> : st.stopped ? <button type="button" onClick={() => live.resume()}>Solve</button> : null}
+    </>
   );
 }
 

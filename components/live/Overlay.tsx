@@ -1,43 +1,59 @@
 'use client';
 /**
- * The live layers over the parts: the temperature colours (a screen raster, redrawn when the results or
- * the view change), isotherms, optional heat-flow marks, the verdict segments and the coldest point.
+ * The live layer over the parts: the temperature colours (a screen raster, redrawn when the results or
+ * the view change), isotherms, optional heat-flow marks, the verdict segments and the coldest point, all
+ * in one Konva layer, so a new result changes one canvas; the probe label has a layer of its own.
  */
 import { useEffect, useMemo, useRef } from 'react';
 import { Circle, Group, Image as KImage, Layer, Line, Rect, Text } from 'react-konva';
-import { useBoard, WorldLayer } from '@/components/board/Canvas';
-import { useStore } from '@/components/board/store';
+import { useBoard } from '@/components/board/Canvas';
+import { useStore, useStoreFields } from '@/components/board/store';
+import { toScreen } from '@/components/board/view';
 import { formatQuantity } from '@/lib/units';
+import type { ScreenView } from './colour';
 import { buildLut, levels, rangeOf, rasterize } from './colour';
 import { flowMarks, isotherms } from './contours';
 import type { LiveSession } from './session';
+import { RASTER_ALPHA } from './session';
 import { styleFor } from './segments';
 import type { LiveOptions } from './options';
 import { probeAt } from './probe';
 
 const LUT = buildLut();
+const sameView = (a: ScreenView, b: ScreenView) => a.k === b.k && a.ox === b.ox && a.oy === b.oy;
+
+/** What the overlay draws from: a solver progress message or a new request does not redraw it. */
+const SHOWN = ['results', 'field', 'iso', 'stale', 'raster', 'mesh'] as const;
 
 export function LiveOverlay({ live, options }: { live: LiveSession; options: LiveOptions }) {
   const c = useBoard();
-  const st = useStore(live.state);
+  const st = useStoreFields(live.state, SHOWN);
   const v = useStore(c.view);
   const size = useStore(c.size);
-  const ui = useStore(c.ui);
+  const system = useStore(c.ui).system;
   const opt = useStore(options);
   const canvas = useMemo(() => (typeof document !== 'undefined' ? document.createElement('canvas') : null), []);
+  const pixels = useRef<ImageData | null>(null);
   const imgRef = useRef<import('konva/lib/shapes/Image').Image | null>(null);
   const range = useMemo(() => (st.results ? rangeOf(st.results.zones.filter((z) => z.touches).map((z) => z.design.t)) : null), [st.results]);
 
+  // The colours: one screen raster per result or view, kept in one canvas and drawn as one image.
   useEffect(() => {
     if (!canvas || !st.field || !range || !opt.colours) return;
     const w = Math.max(1, Math.floor(size.width)), h = Math.max(1, Math.floor(size.height));
     if (canvas.width !== w || canvas.height !== h) { canvas.width = w; canvas.height = h; }
     const ctx = canvas.getContext('2d')!;
-    const img = ctx.createImageData(w, h);
-    rasterize(st.field, range, LUT, v, w, h, img.data, 235);
-    ctx.putImageData(img, 0, 0);
+    const ras = st.raster;
+    if (ras && ras.width === w && ras.height === h && sameView(ras.view, v)) {
+      // Painted by the worker for this very view: copy it in.
+      ctx.putImageData(new ImageData(ras.pixels as Uint8ClampedArray<ArrayBuffer>, w, h), 0, 0);
+    } else {
+      if (!pixels.current || pixels.current.width !== w || pixels.current.height !== h) pixels.current = ctx.createImageData(w, h);
+      rasterize(st.field, range, LUT, v, w, h, pixels.current.data, RASTER_ALPHA);
+      ctx.putImageData(pixels.current, 0, 0);
+    }
     imgRef.current?.getLayer()?.batchDraw();
-  }, [canvas, st.field, range, v, size, opt.colours]);
+  }, [canvas, st.field, st.raster, range, v, size, opt.colours]);
 
   // The worker traces the isotherms with each solve; only a change of interval is traced here, once.
   const lines = useMemo(() => {
@@ -46,39 +62,41 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
     return isotherms(st.field, levels(range, opt.step));
   }, [st.field, st.iso, range, opt.isotherms, opt.step]);
   const marks = useMemo(() => (st.field && opt.flow ? flowMarks(st.field, Math.max(3, Math.round(Math.sqrt((st.field.nx * st.field.ny) / 900)))) : []), [st.field, opt.flow]);
-  if (!st.results || !st.field) return null;
   const r = st.results;
   const px = 1 / v.k;
-  return (
-    <>
-      {opt.colours && (
-        <Layer listening={false} opacity={st.stale ? 0.55 : 1}>
-          <KImage ref={imgRef} image={canvas ?? undefined} x={0} y={0} width={size.width} height={size.height} />
-        </Layer>
-      )}
-      <WorldLayer opacity={st.stale ? 0.6 : 1}>
+  // World-space drawing (isotherms, flow marks, verdict segments): new nodes only for new results or a zoom.
+  const world = useMemo(() => {
+    if (!r) return null;
+    return (
+      <>
         {lines.map((iso) => iso.lines.map((pts, i) => (
           <Line key={`${iso.value}-${i}`} points={pts} stroke={iso.value === 0 ? '#ffffff' : 'rgba(20,20,20,0.55)'} strokeWidth={iso.value === 0 ? 1.6 : 0.9} strokeScaleEnabled={false} listening={false} perfectDrawEnabled={false} />
         )))}
         {marks.map((m, i) => {
           const L = 9 * px;
-          return <Line key={`f${i}`} points={[m.x - m.dx * L * 0.5, m.y - m.dy * L * 0.5, m.x + m.dx * L * 0.5, m.y + m.dy * L * 0.5]} stroke="rgba(255,255,255,0.8)" strokeWidth={1} strokeScaleEnabled={false} listening={false} />;
+          return <Line key={`f${i}`} points={[m.x - m.dx * L * 0.5, m.y - m.dy * L * 0.5, m.x + m.dx * L * 0.5, m.y + m.dy * L * 0.5]} stroke="rgba(255,255,255,0.8)" strokeWidth={1} strokeScaleEnabled={false} listening={false} perfectDrawEnabled={false} />;
         })}
         {r.surfaces.map((s) => {
           const sty = styleFor(s.state);
           const pts = [s.from[0], s.from[1], s.to[0], s.to[1]];
           return (
             <Group key={s.id} listening={false}>
-              <Line points={pts} stroke="#ffffff" strokeWidth={sty.width + 3} strokeScaleEnabled={false} opacity={0.85} />
-              <Line points={pts} stroke={sty.stroke} strokeWidth={sty.width} dash={sty.dash.length ? sty.dash.map((d) => d * px) : undefined} strokeScaleEnabled={false} lineCap={s.state === 'condensation' ? 'round' : 'butt'} />
+              <Line points={pts} stroke="#ffffff" strokeWidth={sty.width + 3} strokeScaleEnabled={false} opacity={0.85} perfectDrawEnabled={false} />
+              <Line points={pts} stroke={sty.stroke} strokeWidth={sty.width} dash={sty.dash.length ? sty.dash.map((d) => d * px) : undefined} strokeScaleEnabled={false} lineCap={s.state === 'condensation' ? 'round' : 'butt'} perfectDrawEnabled={false} />
             </Group>
           );
         })}
-      </WorldLayer>
-      <Layer listening={false}>
+      </>
+    );
+  }, [r, lines, marks, px]);
+  // Screen-space marks (segment glyphs, the coldest point's label): new nodes for new results or a view change.
+  const marksOnScreen = useMemo(() => {
+    if (!r) return null;
+    return (
+      <>
         {r.surfaces.map((s) => {
           const sty = styleFor(s.state);
-          const [x, y] = c.toScreen([(s.from[0] + s.to[0]) / 2, (s.from[1] + s.to[1]) / 2]);
+          const [x, y] = toScreen(v, [(s.from[0] + s.to[0]) / 2, (s.from[1] + s.to[1]) / 2]);
           const hollow = s.kind === 'hidden';
           if (sty.glyph === 'ring') return <Circle key={`g${s.id}`} x={x} y={y} radius={4} stroke={sty.stroke} strokeWidth={2} fill={hollow ? '#fff' : sty.stroke} />;
           if (sty.glyph === 'diamond') return <Rect key={`g${s.id}`} x={x} y={y} width={9} height={9} offsetX={4.5} offsetY={4.5} rotation={45} stroke="#fff" strokeWidth={1} fill={hollow ? '#fff' : sty.stroke} />;
@@ -91,8 +109,8 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
           );
         })}
         {r.coldest && (() => {
-          const [x, y] = c.toScreen(r.coldest.at);
-          const text = `coldest ${formatQuantity('temperature', r.coldest.t, ui.system)}${r.coldest.fRsi !== null ? ` · fRsi ${r.coldest.fRsi.toFixed(2)}` : ''}`;
+          const [x, y] = toScreen(v, r.coldest.at);
+          const text = `coldest ${formatQuantity('temperature', r.coldest.t, system)}${r.coldest.fRsi !== null ? ` · fRsi ${r.coldest.fRsi.toFixed(2)}` : ''}`;
           const w = text.length * 6.4 + 12;
           return (
             <Group x={x} y={y} listening={false}>
@@ -103,18 +121,37 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
             </Group>
           );
         })()}
-        {st.stale && <Text x={10} y={10} text="Updating: the colours show the previous drawing" fontSize={12} fill="#7a3b00" fontStyle="bold" />}
+      </>
+    );
+  }, [r, v, system]);
+  if (!r || !st.field) return null;
+  // Preview results (a drag under way) are drawn dimmed throughout, rather than dimmed and undimmed as
+  // each result catches up with the drawing and the next move leaves it behind (a redraw each time).
+  const dim = st.stale || st.mesh === 'preview';
+  const note = st.mesh === 'preview' ? 'Preview on a coarse mesh while you drag' : st.stale ? 'Updating: the colours show the previous drawing' : null;
+  // One layer (one canvas for the compositor to take) for colours, lines and marks.
+  return (
+    <>
+      <Layer listening={false}>
+        {opt.colours && <KImage ref={imgRef} image={canvas ?? undefined} x={0} y={0} width={size.width} height={size.height} opacity={dim ? 0.55 : 1} listening={false} />}
+        <Group x={v.ox} y={v.oy} scaleX={v.k} scaleY={-v.k} opacity={dim ? 0.6 : 1} listening={false}>
+          {world}
+        </Group>
+        <Group listening={false}>{marksOnScreen}</Group>
+        {note && <Text x={10} y={10} text={note} fontSize={12} fill="#7a3b00" fontStyle="bold" listening={false} />}
       </Layer>
       <ProbeLayer live={live} />
     </>
   );
 }
 
+const PROBED = ['results', 'field'] as const;
+
 /** A small label beside the pointer: temperature there and, over a verdict surface, its surface RH. Its own layer, so a pointer move redraws only it. */
 function ProbeLayer({ live }: { live: LiveSession }) {
   const c = useBoard();
   const spot = useStore(c.pointer);
-  const st = useStore(live.state);
+  const st = useStoreFields(live.state, PROBED);
   const ui = useStore(c.ui);
   if (!spot || !st.field || !st.results || ui.tool.type !== 'select' || c.isDragging()) return null;
   const tol = (spot.pointerType === 'touch' ? 14 : 6) / c.view.get().k;

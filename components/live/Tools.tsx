@@ -7,7 +7,7 @@ import { useMemo, useRef } from 'react';
 import { useBoard } from '@/components/board/Canvas';
 import { ValueField } from '@/components/board/SidePanel';
 import { parseCoordinate } from '@/components/board/fields';
-import { useStore } from '@/components/board/store';
+import { useStore, useStoreFields } from '@/components/board/store';
 import { lookupMaterial } from '@/lib/section/resolve';
 import * as ops from '@/lib/section/ops';
 import { newId } from '@/lib/section/ids';
@@ -21,12 +21,15 @@ import type { LiveSession } from './session';
 
 const box: React.CSSProperties = { borderTop: '1px solid #ddd6ca', padding: '8px 10px', fontSize: 12, lineHeight: 1.45 };
 const CUT = '#5b3f8c';
+/** The probe and the cut charts read the field and results only, not the solver's progress. */
+const FIELD = ['field', 'results'] as const;
+const CHARTED = ['field', 'stale'] as const;
 
 /** The probe: the pointer over the section shows temperature and material; over a verdict surface its figures too. */
 export function Probe({ live, sys }: { live: LiveSession; sys: UnitSystem }) {
   const c = useBoard();
   const spot = useStore(c.pointer);
-  const st = useStore(live.state);
+  const st = useStoreFields(live.state, FIELD);
   // The settled section: during a drag the probe holds still, so the page does no layout on every move.
   const section = useStore(c.settled);
   const held = useRef<ProbeReading | null>(null);
@@ -69,7 +72,7 @@ const W = 250, H = 110;
 
 function CutChart({ cut, live, sys }: { cut: CutRecord; live: LiveSession; sys: UnitSystem }) {
   const c = useBoard();
-  const st = useStore(live.state);
+  const st = useStoreFields(live.state, CHARTED);
   const section = useStore(c.settled);
   const profile = useMemo(() => (st.field ? cutProfile(st.field, section.resolved.solids, cut.from, cut.to) : null), [st.field, section, cut]);
   if (!profile) return <p style={{ color: '#555' }}>Waiting for results…</p>;

@@ -3,7 +3,7 @@ import { buildLut, fieldAt, levels, rangeOf, rasterize } from './colour';
 import type { GridField } from './colour';
 import { gridToWorld, isotherms } from './contours';
 import { diffResults, signed } from './diff';
-import { Scheduler } from './scheduler';
+import { Scheduler, SolveQueue } from './scheduler';
 import { SEGMENT_STYLES, worst } from './segments';
 import type { SectionResults } from '@/lib/thermal/types';
 
@@ -93,12 +93,17 @@ describe('compare', () => {
 });
 
 describe('scheduler', () => {
-  it('lets a running preview finish and keeps only the newest waiting preview', () => {
+  it('posts every preview at once; a running preview finishes and only the newest waits', () => {
     const s = new Scheduler<string>();
     expect(s.request('a', 'preview', 1)).toEqual([{ type: 'send', req: { id: 1, snapshot: 'a', mesh: 'preview', version: 1 } }]);
-    expect(s.request('b', 'preview', 2)).toEqual([]);
-    expect(s.request('c', 'preview', 3)).toEqual([]);
-    expect(s.done(1)).toEqual([{ type: 'send', req: { id: 3, snapshot: 'c', mesh: 'preview', version: 3 } }]);
+    expect(s.request('b', 'preview', 2)).toEqual([{ type: 'send', req: { id: 2, snapshot: 'b', mesh: 'preview', version: 2 } }]);
+    expect(s.request('c', 'preview', 3)).toEqual([{ type: 'send', req: { id: 3, snapshot: 'c', mesh: 'preview', version: 3 } }]);
+    expect(s.waiting?.id).toBe(3);
+    // The worker starts the waiting one itself: nothing more to send.
+    expect(s.done(1)).toEqual([]);
+    expect(s.running?.id).toBe(3);
+    expect(s.done(2)).toEqual([]); // dropped in the worker: no change here
+    expect(s.running?.id).toBe(3);
     expect(s.done(3)).toEqual([]);
     expect(s.running).toBeNull();
   });
@@ -113,5 +118,63 @@ describe('scheduler', () => {
     expect(s.running?.id).toBe(3);
     expect(s.stop()).toEqual([{ type: 'cancel', id: 3 }]);
     expect(Scheduler.fresher(2, 3)).toBe(false);
+  });
+});
+
+describe('solve queue in the worker', () => {
+  it('keeps the newest preview waiting behind a running preview and starts it when that one ends', () => {
+    const q = new SolveQueue<{ id: number; mesh: 'preview' | 'default' }>();
+    expect(q.solve({ id: 1, mesh: 'preview' })).toEqual([{ type: 'start', job: { id: 1, mesh: 'preview' } }]);
+    expect(q.solve({ id: 2, mesh: 'preview' })).toEqual([]);
+    expect(q.solve({ id: 3, mesh: 'preview' })).toEqual([{ type: 'drop', id: 2 }]);
+    expect(q.finished(2)).toEqual([]);
+    expect(q.finished(1)).toEqual([{ type: 'start', job: { id: 3, mesh: 'preview' } }]);
+    expect(q.finished(3)).toEqual([]);
+    expect(q.running).toBeNull();
+  });
+  it('a default request aborts the running solve and drops the waiting one; a cancel does both', () => {
+    const q = new SolveQueue<{ id: number; mesh: 'preview' | 'default' }>();
+    q.solve({ id: 1, mesh: 'preview' });
+    q.solve({ id: 2, mesh: 'preview' });
+    expect(q.solve({ id: 3, mesh: 'default' })).toEqual([{ type: 'abort', id: 1 }, { type: 'drop', id: 2 }, { type: 'start', job: { id: 3, mesh: 'default' } }]);
+    expect(q.finished(1)).toEqual([]); // the aborted one ending starts nothing
+    expect(q.solve({ id: 4, mesh: 'preview' })).toEqual([{ type: 'abort', id: 3 }, { type: 'start', job: { id: 4, mesh: 'preview' } }]);
+    q.solve({ id: 5, mesh: 'preview' });
+    expect(q.cancel(4)).toEqual([{ type: 'abort', id: 4 }, { type: 'drop', id: 5 }]);
+    expect(q.running).toBeNull();
+    expect(q.cancel(9)).toEqual([]);
+  });
+  it('page and worker agree on what runs and what waits, over random requests, results and stops', () => {
+    let seed = 7;
+    const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    for (let run = 0; run < 200; run++) {
+      const page = new Scheduler<string>();
+      const worker = new SolveQueue<{ id: number; mesh: 'preview' | 'default' | 'fine' }>();
+      const started: number[] = [];
+      const toWorker = (effects: ReturnType<typeof page.request>) => {
+        for (const e of effects) {
+          const acts = e.type === 'cancel' ? worker.cancel(e.id) : worker.solve({ id: e.req.id, mesh: e.req.mesh });
+          for (const a of acts) {
+            if (a.type === 'start') started.push(a.job.id);
+            if (a.type === 'drop') page.done(a.id); // the worker reports it cancelled
+            if (a.type === 'abort') finish(a.id);
+          }
+        }
+      };
+      const finish = (id: number) => {
+        for (const a of worker.finished(id)) if (a.type === 'start') started.push(a.job.id);
+        page.done(id);
+      };
+      for (let step = 0; step < 40; step++) {
+        const x = rnd();
+        if (x < 0.55) toWorker(page.request('s', rnd() < 0.8 ? 'preview' : 'default', step));
+        else if (x < 0.9) { if (worker.running) finish(worker.running.id); }
+        else toWorker(page.stop());
+        expect(page.running?.id ?? null).toBe(worker.running?.id ?? null);
+        expect(page.waiting?.id ?? null).toBe(worker.pending?.id ?? null);
+      }
+      // No job starts twice.
+      expect(new Set(started).size).toBe(started.length);
+    }
   });
 });

@@ -11,7 +11,7 @@ import type { SectionResults } from '@/lib/thermal/types';
 import type { GridField } from './colour';
 import type { Isotherm } from './contours';
 import type { LiveOptions } from './options';
-import type { FromWorker, ToWorker } from './protocol';
+import type { FromWorker, Raster, ToWorker } from './protocol';
 import type { Effect, Mesh } from './scheduler';
 import { Scheduler } from './scheduler';
 
@@ -33,7 +33,12 @@ export interface LiveState {
   mesh: Mesh | null;
   /** Isotherms traced by the worker for the shown results, at `step` K. */
   iso: { step: number; lines: Isotherm[] } | null;
+  /** The colours painted by the worker for the view of the request (the overlay paints them itself for any other view). */
+  raster: Raster | null;
 }
+
+/** Opacity of the colour raster over the parts, 0 to 255. */
+export const RASTER_ALPHA = 235;
 
 export interface Baseline { results: SectionResults; snapshot: SectionSnapshot }
 
@@ -51,7 +56,7 @@ export class LiveSession {
 
   /** `options` (optional): the viewer's isotherm interval is traced in the worker with each solve. */
   constructor(private readonly options: LiveOptions | null = null) {
-    this.state = createStore<LiveState>({ results: null, field: null, version: -1, drawn: 0, stale: true, busy: null, error: null, refreshes: 0, lastMs: 0, stopped: false, mesh: null, iso: null });
+    this.state = createStore<LiveState>({ results: null, field: null, version: -1, drawn: 0, stale: true, busy: null, error: null, refreshes: 0, lastMs: 0, stopped: false, mesh: null, iso: null, raster: null });
   }
 
   attach(c: BoardController) {
@@ -120,7 +125,10 @@ export class LiveSession {
       if (e.type === 'cancel') this.post({ type: 'cancel', id: e.id });
       else {
         const o = this.options?.get();
-        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null });
+        const c = this.controller;
+        const size = c?.size.get();
+        const raster = c && size && (!o || o.colours) ? { view: c.view.get(), width: Math.max(1, Math.floor(size.width)), height: Math.max(1, Math.floor(size.height)), alpha: RASTER_ALPHA } : null;
+        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null, sentAt: performance.timeOrigin + performance.now(), raster });
         this.patch({ busy: { mesh: e.req.mesh, elapsedMs: 0 } });
       }
     }
@@ -143,8 +151,11 @@ export class LiveSession {
       const field: GridField = { xs: m.results.field.xs, ys: m.results.field.ys, nx: m.results.field.xs.length - 1, ny: m.results.field.ys.length - 1, t: m.field };
       const drawn = this.controller?.section.get().version ?? version;
       const prev = this.state.get();
-      this.patch({ results: m.results, field, version, stale: version !== drawn, mesh: req?.mesh ?? null, error: null, refreshes: prev.refreshes + 1, lastMs: m.ms, iso: m.iso ?? null });
-      expose(this, m.results, req?.mesh ?? null, version, m.ms);
+      this.patch({ results: m.results, field, version, stale: version !== drawn, mesh: req?.mesh ?? null, error: null, refreshes: prev.refreshes + 1, lastMs: m.ms, iso: m.iso ?? null, raster: m.raster ?? null });
+      // Delivery figures for the benchmark: request to solve start, and result posted to handled here.
+      const now = performance.timeOrigin + performance.now();
+      const lag = { toWorkerMs: m.startedAt !== undefined && m.sentAt !== undefined ? m.startedAt - m.sentAt : NaN, backMs: m.postedAt !== undefined ? now - m.postedAt : NaN };
+      expose(this, m.results, req?.mesh ?? null, version, m.ms, lag);
     } else if (m.type === 'error' && req) this.patch({ error: m.message });
     this.apply(this.sched.done(m.id));
     // A preview that finished after the release, or anything missed: make sure the drawing gets its default solve.
@@ -158,10 +169,10 @@ export class LiveSession {
   }
 }
 
-function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, version: number, ms: number) {
+function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, version: number, ms: number, lag: { toWorkerMs: number; backMs: number }) {
   if (typeof window === 'undefined') return;
   const w = window as unknown as { __dewline?: Record<string, unknown> };
   w.__dewline ??= {};
   w.__dewline.results = results;
-  w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), ms, cells: results.mesh.cells, snapshot: s.controller?.snapshot() };
+  w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), ms, cells: results.mesh.cells, ...lag, snapshot: s.controller?.snapshot() };
 }

@@ -1,40 +1,57 @@
 /// <reference lib="webworker" />
 /**
- * The solver worker: plain messages in and out. One solve at a time; a cancel message (or a newer solve)
- * aborts the running one between iterations. The last results of each mesh level warm-start the next.
+ * The solver worker: plain messages in and out. One solve at a time, by the policy in scheduler.ts
+ * (SolveQueue): a newer preview waits for the running preview and starts the moment it ends; a release
+ * or a cancel aborts the running solve between iterations. The last results of each mesh level
+ * warm-start the next.
  */
-import { solveSection } from '@/lib/thermal/section';
+import { solveSectionSteps } from '@/lib/thermal/section';
 import type { SectionResults } from '@/lib/thermal/types';
 import type { SectionSnapshot } from '@/lib/section/schema';
-import type { FromWorker, ToWorker } from './protocol';
-import { levels, rangeOf } from './colour';
+import type { FromWorker, Raster, ToWorker } from './protocol';
+import type { QueueAction } from './scheduler';
+import { SolveQueue } from './scheduler';
+import { buildLut, levels, rangeOf, rasterize } from './colour';
 import { isotherms } from './contours';
+import { channelPause, runSliced } from './drive';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
-let current: { id: number; token: { aborted: boolean } } | null = null;
+type SolveMessage = Extract<ToWorker, { type: 'solve' }>;
+const queue = new SolveQueue<SolveMessage>();
+const tokens = new Map<number, { aborted: boolean }>();
 const last: Partial<Record<string, SectionResults>> = {};
+const clock = () => performance.timeOrigin + performance.now();
+const LUT = buildLut();
+const pause = channelPause();
 
 scope.onmessage = (e: MessageEvent<ToWorker>) => {
   const m = e.data;
-  if (m.type === 'cancel') {
-    if (current && current.id === m.id) current.token.aborted = true;
-    return;
-  }
-  if (m.type === 'solve') {
-    if (current) current.token.aborted = true;
-    void run(m.id, m.snapshot as SectionSnapshot, m.mesh, m.isoStep ?? null);
-  }
+  act(m.type === 'cancel' ? queue.cancel(m.id) : queue.solve(m));
 };
 
-async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'default' | 'fine', isoStep: number | null) {
+function act(actions: QueueAction<SolveMessage>[]) {
+  for (const a of actions) {
+    if (a.type === 'abort') {
+      const t = tokens.get(a.id);
+      if (t) t.aborted = true;
+    } else if (a.type === 'drop') post({ type: 'cancelled', id: a.id });
+    else void run(a.job);
+  }
+}
+
+async function run(m: SolveMessage) {
+  const { id, mesh } = m;
+  const snapshot = m.snapshot as SectionSnapshot;
+  const isoStep = m.isoStep ?? null;
   const token = { aborted: false };
-  current = { id, token };
+  tokens.set(id, token);
+  const startedAt = clock();
   const t0 = performance.now();
   const timer = setInterval(() => post({ type: 'progress', id, elapsedMs: performance.now() - t0 }), 250);
   try {
     // Preview solves start from the last preview; release solves start cold, so they equal `dewline solve` to the last digit.
     const warm = mesh === 'preview' ? last.preview ?? last.default ?? null : null;
-    const results = await solveSection(snapshot, { mesh, signal: token, warmStart: warm });
+    const results = await runSliced(solveSectionSteps(snapshot, { mesh, signal: token, warmStart: warm }), token, pause);
     last[mesh] = results;
     const t = new Float64Array(results.field.t.length);
     for (let k = 0; k < t.length; k++) { const v = results.field.t[k]; t[k] = v === null ? NaN : v; }
@@ -45,14 +62,28 @@ async function run(id: number, snapshot: SectionSnapshot, mesh: 'preview' | 'def
       const range = rangeOf(results.zones.filter((z) => z.touches).map((z) => z.design.t));
       iso = { step: isoStep, lines: isotherms({ xs: results.field.xs, ys: results.field.ys, nx: results.field.xs.length - 1, ny: results.field.ys.length - 1, t }, levels(range, isoStep)) };
     }
-    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso }, [t.buffer]);
+    // The colours for the view the page had when it asked: the page only copies the pixels in.
+    let raster: Raster | null = null;
+    if (m.raster && m.raster.width > 0 && m.raster.height > 0) {
+      const { view, width, height, alpha } = m.raster;
+      const pixels = new Uint8ClampedArray(width * height * 4);
+      const range = rangeOf(results.zones.filter((z) => z.touches).map((z) => z.design.t));
+      rasterize({ xs: results.field.xs, ys: results.field.ys, nx: results.field.xs.length - 1, ny: results.field.ys.length - 1, t }, range, LUT, view, width, height, pixels, alpha);
+      raster = { view, width, height, alpha, pixels };
+    }
+    // The field and the pixels go over as transferred buffers, not copied.
+    const transfer: Transferable[] = [t.buffer];
+    if (raster) transfer.push(raster.pixels.buffer);
+    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso, raster, sentAt: m.sentAt, startedAt, postedAt: clock() }, transfer);
   } catch (err) {
     const e = err as Error;
     if (e?.name === 'AbortError') post({ type: 'cancelled', id });
     else post({ type: 'error', id, message: e?.message ?? String(err) });
   } finally {
     clearInterval(timer);
-    if (current?.id === id) current = null;
+    tokens.delete(id);
+    // The waiting preview starts here at once, without a round trip through the page.
+    act(queue.finished(id));
   }
 }
 

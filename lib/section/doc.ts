@@ -102,13 +102,15 @@ const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b)
  */
 export function writeDiff(doc: Y.Doc, before: SectionSnapshot, after: SectionSnapshot): void {
   const m = docMaps(doc);
-  for (const key of ['name', 'description', 'analysis'] as const) if (!same(before[key], after[key])) m.section.set(key, clone(after[key]));
+  if (before === after) return;
+  for (const key of ['name', 'description', 'analysis'] as const) if (before[key] !== after[key] && !same(before[key], after[key])) m.section.set(key, clone(after[key]));
   const records = <T extends { id: string }>(target: Y.Map<Y.Map<unknown>>, a: readonly T[], b: readonly T[]) => {
     const old = new Map(a.map((r) => [r.id, r]));
     const next = new Set(b.map((r) => r.id));
     for (const r of a) if (!next.has(r.id)) target.delete(r.id);
     for (const r of b) {
       const prev = old.get(r.id);
+      if (prev === r) continue; // the same record object: nothing to write (edits share unchanged records)
       let ym = target.get(r.id);
       if (!prev || !(ym instanceof Y.Map)) {
         ym = new Y.Map<unknown>();
@@ -127,6 +129,7 @@ export function writeDiff(doc: Y.Doc, before: SectionSnapshot, after: SectionSna
   records(m.parts, before.parts, after.parts);
   records(m.zones, before.zones, after.zones);
   const plain = <T extends { id: string }>(target: Y.Map<unknown>, a: readonly T[], b: readonly T[]) => {
+    if (a === b) return;
     const next = new Map(b.map((r) => [r.id, r]));
     for (const r of a) if (!next.has(r.id)) target.delete(r.id);
     const old = new Map(a.map((r) => [r.id, r]));

@@ -16,24 +16,76 @@ import { defaultParams } from './params';
 import { partKind } from './registry';
 import { resolveSection } from './resolve';
 import type { AnalysisSettings, CutRecord, Join, MaterialRecord, PartRecord, SectionSnapshot, ZoneRecord } from './schema';
-import { validateSection } from './validate';
+import { validateEdit } from './validate';
 
 export type Change = (s: SectionSnapshot) => SectionSnapshot;
 
-/** Current valid snapshot of the document, or a SectionError. */
-export function currentSection(doc: Y.Doc): SectionSnapshot {
+/**
+ * The document's valid snapshot, kept per document until its next transaction (local or remote). The
+ * named operations set it after their own write: the write is the difference between the snapshot read
+ * and the one validated, field by field, so reading the document back gives the validated snapshot
+ * (lib/section/ops.test.ts reads it back after random edit sequences).
+ */
+interface Known { snapshot: SectionSnapshot; stamp: number }
+const known = new WeakMap<Y.Doc, Known>();
+const stamps = new WeakMap<Y.Doc, { n: number }>();
+
+function stampOf(doc: Y.Doc): { n: number } {
+  let st = stamps.get(doc);
+  if (!st) {
+    const fresh = { n: 0 };
+    doc.on('afterTransaction', () => { fresh.n++; });
+    stamps.set(doc, fresh);
+    st = fresh;
+  }
+  return st;
+}
+
+/** The shared, read-only snapshot of the document (validated when the document changed since). */
+function knownSection(doc: Y.Doc): SectionSnapshot {
+  const st = stampOf(doc);
+  const k = known.get(doc);
+  // Inside someone's open transaction the document may hold writes no operation checked: read it.
+  if (k && k.stamp === st.n && doc._transaction === null) return k.snapshot;
   const v = readSection(doc);
   if (!v.ok) throw new SectionError(v.problems.map((p) => ({ ...p, message: `the document itself is invalid here: ${p.message}` })));
+  remember(doc, v.section);
   return v.section;
 }
 
-/** Apply a change as one transaction if the result is valid; returns the new snapshot. */
+function remember(doc: Y.Doc, snapshot: SectionSnapshot) {
+  known.set(doc, { snapshot: READ_ONLY ? deepFreeze(snapshot) : snapshot, stamp: stampOf(doc).n });
+}
+
+/** Under test the kept snapshots are frozen, so a caller changing a snapshot it was given fails loudly. */
+const READ_ONLY = typeof process !== 'undefined' && process.env?.NODE_ENV === 'test';
+function deepFreeze<T>(v: T): T {
+  if (v && typeof v === 'object' && !Object.isFrozen(v)) {
+    Object.freeze(v);
+    for (const x of Object.values(v)) deepFreeze(x);
+  }
+  return v;
+}
+
+/** Current valid snapshot of the document (the caller's own copy), or a SectionError. */
+export function currentSection(doc: Y.Doc): SectionSnapshot {
+  return clone(knownSection(doc));
+}
+
+/**
+ * Apply a change as one transaction if the result is valid; returns the new snapshot (shared with the
+ * next operation on this document: read it, do not change it). Only the parts and zones the change
+ * touched are validated again (validateEdit, equivalent to validating the whole section).
+ */
 export function applyChange(doc: Y.Doc, origin: unknown, change: Change): SectionSnapshot {
-  const before = currentSection(doc);
+  const before = knownSection(doc);
   const proposed = change(clone(before));
-  const v = validateSection(proposed);
+  const v = validateEdit(before, proposed);
   if (!v.ok) throw new SectionError(v.problems);
+  const st = stampOf(doc), n0 = st.n, open = doc._transaction !== null;
   doc.transact(() => writeDiff(doc, before, v.section), origin);
+  // Kept only when this write was the one transaction since the read (no observer wrote in between).
+  if (!open && st.n === n0 + 1) remember(doc, v.section);
   return v.section;
 }
 

@@ -31,7 +31,11 @@ export interface MeshSpec {
 }
 
 export const MESH_LEVELS: Record<MeshLevel, MeshSpec> = {
-  preview: { h0: 0.008, growth: 1.5, hmax: 0.1, hmaxGround: 1.0, h0Point: 0.002 },
+  // For dragging: a few thousand cells on the templates (2 400 to 3 800; docs/bench-ui.md), so a preview
+  // solve fits between two board refreshes. Every layer still spans at least one cell whatever the
+  // sizes: the grid lines include every vertex, so a membrane is its own row (see gradeInterval).
+  // No finer lines through surface singular points here (the release solves at the default mesh).
+  preview: { h0: 0.016, growth: 2.0, hmax: 0.1, hmaxGround: 2.0 },
   default: { h0: 0.004, growth: 1.3, hmax: 0.05, hmaxGround: 1.0, h0Point: 0.001 },
   fine: { h0: 0.002, growth: 1.15, hmax: 0.025, hmaxGround: 0.25, h0Point: 0.0005 },
 };

@@ -44,7 +44,9 @@ describe('L2D with two indoor zones at one temperature', () => {
   // between each indoor zone and each non-indoor zone; the coupling basement <-> room above is internal.
   for (const name of ['basement-inside-framed', 'basement-outside']) {
     it(`${name}: L2D is the sum of indoor-to-exterior couplings`, () => {
-      const res = solveSectionSync(templateByName(name)!.build(), { mesh: 'preview' });
+      // Solved tight: the identity is exact for converged unit solutions, while the default stop rule
+      // settles zone flows to only 1e-5 relative, looser than the 1e-6 asked here.
+      const res = solveSectionSync(templateByName(name)!.build(), { mesh: 'preview', stop: { rtol: 1e-12, ftol: 0, btol: 0 } });
       const indoor = new Set(['basement', 'room']);
       const external = res.couplings.filter((c) => indoor.has(c.a) !== indoor.has(c.b)).reduce((s, c) => s + c.l, 0);
       const internal = res.couplings.find((c) => indoor.has(c.a) && indoor.has(c.b));
