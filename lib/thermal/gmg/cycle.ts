@@ -9,7 +9,7 @@ import type { Preconditioner } from '../preconditioner';
 import { bandSolve } from './band';
 import type { GridHierarchy } from './hierarchy';
 import { lineSmoothPost, lineSmoothPre } from './lines';
-import { gaussSeidelBackward, gaussSeidelForward, prolongAdd, restrictResidual } from './smoothers';
+import { gaussSeidelBackward, gaussSeidelForwardFromZero, prolongAdd, restrictResidual } from './smoothers';
 
 export class GridVCycle implements Preconditioner {
   constructor(readonly h: GridHierarchy) {}
@@ -31,10 +31,10 @@ export class GridVCycle implements Preconditioner {
     }
     const next = h.levels[l + 1];
     const p = h.prolongators[l];
-    lv.x.fill(0);
+    // Both pre-smoothers start from x = 0 and write every point before reading it (no clearing pass).
     const piv = h.pivots[l];
     if (piv) lineSmoothPre(lv, piv);
-    else gaussSeidelForward(lv);
+    else gaussSeidelForwardFromZero(lv);
     // The line smoother ends on the odd columns, so the residual there is zero.
     restrictResidual(lv, p, next.b, piv !== null);
     this.cycle(l + 1);

@@ -235,6 +235,10 @@ describe('grid V-cycle as a PCG preconditioner', () => {
     for (let i = 0; i < n; i++) { vmu += v[i] * mu[i]; umv += u[i] * mv[i]; umu += u[i] * mu[i]; }
     expect(Math.abs(vmu - umv)).toBeLessThan(1e-10 * Math.abs(umu));
     expect(umu).toBeGreaterThan(0);
+    // No state leaks from one application to the next (the pre-smoothers skip clearing x).
+    const again = new Float64Array(n);
+    m.apply(u, again);
+    expect(Array.from(again)).toEqual(Array.from(mu));
   });
 
   it.each([[1, 60, 50], [2, 90, 70], [3, 128, 33], [4, 200, 150]])('PCG converges to 1e-10 within 20 iterations on graded cells (aspect up to 100) with jumps of 10^4 and a void (seed %i, %i x %i)', (seed, nx, ny) => {

@@ -80,9 +80,27 @@ function yLines9(nx: number, ny: number, st: number, W: Float64Array, S: Float64
     for (let k = j * st + 1 + parity, e = j * st + 1 + nx; k < e; k += 2) x[k] = (x[k] - S[k + st] * x[k + st]) * piv[k];
 }
 
-/** Pre-smoothing: x-lines even then odd, y-lines even then odd. */
+/**
+ * The even x-lines when x is zero: their neighbouring rows are zero, so only the line itself enters.
+ * It writes every even row without reading any other row, so x need not be cleared first.
+ */
+function evenRowsFromZero(lv: GridLevel, piv: Float64Array): void {
+  const { nx, ny, stride: st, w: W, x, b } = lv;
+  for (let j = 0; j < ny; j += 2) {
+    const k0 = (j + 1) * st + 1, k1 = k0 + nx;
+    for (let k = k0; k < k1; k++) x[k] = b[k] - W[k] * piv[k - 1] * x[k - 1];
+    x[k1 - 1] *= piv[k1 - 1];
+    for (let k = k1 - 2; k >= k0; k--) x[k] = (x[k] - W[k + 1] * x[k + 1]) * piv[k];
+  }
+}
+
+/**
+ * Pre-smoothing from x = 0: x-lines even then odd, y-lines even then odd. Every point is written
+ * before it is read (the even rows from zero, then the odd rows from the even ones), so whatever x
+ * held before does not matter and the level needs no clearing pass.
+ */
 export function lineSmoothPre(lv: GridLevel, p: LinePivots): void {
-  xLines(lv, p.x, 0); xLines(lv, p.x, 1);
+  evenRowsFromZero(lv, p.x); xLines(lv, p.x, 1);
   yLines(lv, p.y, 0); yLines(lv, p.y, 1);
 }
 

@@ -7,18 +7,20 @@ import type { GridLevel } from './grid';
 import { inverseDiagonal } from './grid';
 import type { Prolongator } from './interpolation';
 
-export function gaussSeidelForward(lv: GridLevel): void {
+/**
+ * Forward Gauss-Seidel from x = 0: the neighbours ahead in the sweep are still zero, so only those
+ * behind enter. Writes every point before reading it, so x need not be cleared first.
+ */
+export function gaussSeidelForwardFromZero(lv: GridLevel): void {
   const { nx, ny, stride: st, w: W, s: S, sw: SW, se: SE, x, b } = lv;
   const id = inverseDiagonal(lv);
   if (SW && SE) {
     for (let j = 1; j <= ny; j++)
       for (let k = j * st + 1, e = k + nx; k < e; k++)
-        x[k] = (b[k] - W[k] * x[k - 1] - W[k + 1] * x[k + 1] - S[k] * x[k - st] - S[k + st] * x[k + st]
-          - SW[k] * x[k - st - 1] - SE[k] * x[k - st + 1] - SE[k + st - 1] * x[k + st - 1] - SW[k + st + 1] * x[k + st + 1]) * id[k];
+        x[k] = (b[k] - W[k] * x[k - 1] - S[k] * x[k - st] - SW[k] * x[k - st - 1] - SE[k] * x[k - st + 1]) * id[k];
   } else {
     for (let j = 1; j <= ny; j++)
-      for (let k = j * st + 1, e = k + nx; k < e; k++)
-        x[k] = (b[k] - W[k] * x[k - 1] - W[k + 1] * x[k + 1] - S[k] * x[k - st] - S[k + st] * x[k + st]) * id[k];
+      for (let k = j * st + 1, e = k + nx; k < e; k++) x[k] = (b[k] - W[k] * x[k - 1] - S[k] * x[k - st]) * id[k];
   }
 }
 
