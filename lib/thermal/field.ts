@@ -6,6 +6,7 @@
  * ends), from a local refined solve around the node (see nodeTemperatures).
  */
 import type { ThermalSystem } from './assemble';
+import { choleskyBand, solveBand } from './band';
 
 /** A set of temperatures: per unknown (cell) and per zone. */
 export interface TemperatureSet {
@@ -256,39 +257,6 @@ export class TemperatureField {
       };
       return subFace(sideX) + subFace(sideY) - b[best];
     });
-  }
-}
-
-/** In-place Cholesky factor R (A = R^T R) of a symmetric band matrix stored by rows: a[i (bw + 1) + d] = A[i][i + d]. */
-function choleskyBand(a: Float64Array, n: number, bw: number): boolean {
-  const w = bw + 1;
-  for (let i = 0; i < n; i++) {
-    const kmin = Math.max(0, i - bw);
-    for (let d = 0; d <= bw && i + d < n; d++) {
-      const j = i + d;
-      let sum = a[i * w + d];
-      for (let k = Math.max(kmin, j - bw); k < i; k++) sum -= a[k * w + (i - k)] * a[k * w + (j - k)];
-      if (d === 0) {
-        if (!(sum > 0)) return false;
-        a[i * w] = Math.sqrt(sum);
-      } else a[i * w + d] = sum / a[i * w];
-    }
-  }
-  return true;
-}
-
-/** Solve R^T R x = b in place with the factor from choleskyBand. */
-function solveBand(a: Float64Array, n: number, bw: number, b: Float64Array): void {
-  const w = bw + 1;
-  for (let i = 0; i < n; i++) {
-    let s = b[i];
-    for (let k = Math.max(0, i - bw); k < i; k++) s -= a[k * w + (i - k)] * b[k];
-    b[i] = s / a[i * w];
-  }
-  for (let i = n - 1; i >= 0; i--) {
-    let s = b[i];
-    for (let d = 1; d <= bw && i + d < n; d++) s -= a[i * w + d] * b[i + d];
-    b[i] = s / a[i * w];
   }
 }
 
