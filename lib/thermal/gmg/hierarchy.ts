@@ -80,7 +80,8 @@ export function buildGridHierarchy(a: Csr, cellOf: Int32Array, nx: number, ny: n
   const { level, gridOf } = fineLevelFromCsr(a, cellOf, nx, ny);
   const levels: GridLevel[] = [level];
   const prolongators: Prolongator[] = [];
-  let nz = levelNonzeros(level);
+  const nzFineGrid = levelNonzeros(level);
+  let nz = nzFineGrid;
   const nz0 = a.rowPtr[a.n];
   let bytes = levelBytes(level) + gridOf.byteLength;
   let lv = level;
@@ -108,7 +109,7 @@ export function buildGridHierarchy(a: Csr, cellOf: Int32Array, nx: number, ny: n
   return {
     levels, prolongators, smoothers, pivots, gridOf, coarse,
     sizes: [a.n, ...levels.slice(1).map((l) => l.nx * l.ny)],
-    operatorComplexity: (nz - levelNonzeros(level) + nz0) / nz0,
+    operatorComplexity: (nz - nzFineGrid + nz0) / nz0,
     bytes,
   };
 }
