@@ -157,7 +157,27 @@ export function buildSegments(inp: SegmentInput): SegmentOutput {
   };
   let verdict: SurfaceState = 'fine';
   const [dLo, dHi] = fieldDesign.range(), [mLo, mHi] = fieldMonth.range();
-  const sets = [{ x: fieldDesign.x, tz: fieldDesign.tz }, { x: fieldMonth.x, tz: fieldMonth.tz }];
+  // Node readings are linear in the temperature set, so one patch solve per node with the unit
+  // solutions (each touching zone at 1 K, the others at 0) gives the temperature weighting factors
+  // there, and the design-day and coldest-month readings are their superpositions. Each node is
+  // solved once, however many segments end on it.
+  const unitSets = inp.touch.map((z) => {
+    const tz = new Float64Array(zones.length);
+    tz[z] = 1;
+    return { x: unit(z), tz };
+  });
+  const nodeCache = new Map<string, number[]>();
+  const nodeWeights = (i0: number, j0: number, c: number): number[] => {
+    const key = `${i0},${j0},${c}`;
+    let w = nodeCache.get(key);
+    if (!w) { w = fieldDesign.nodeTemperatures(i0, j0, c, unitSets); nodeCache.set(key, w); }
+    return w;
+  };
+  const superpose = (w: readonly number[], tz: ArrayLike<number>): number => {
+    let v = 0;
+    inp.touch.forEach((z, q) => { v += w[q] * tz[z]; });
+    return v;
+  };
   runs.forEach((r, idx) => {
     const air = airs[r.zone]!;
     let kMin = 0, kMinM = 0, sum = 0, L = 0;
@@ -169,7 +189,7 @@ export function buildSegments(inp: SegmentInput): SegmentOutput {
     }
     let tMin = r.tDesign[kMin], tMinMonth = r.tMonth[kMinM];
     let at: [number, number] = r.horizontal ? [r.mid[kMin], ys[r.line]] : [xs[r.line], r.mid[kMin]];
-    let weightsAt: { i0: number; j0: number; c: number } | null = null;
+    let weightsAt: number[] | null = null;
     // A visible surface's coldest point is often where it ends (a corner, or where it meets another
     // part): read the surface temperature at the end nodes too (TemperatureField.nodeTemperatures),
     // at each end where the surface does not get warmer toward the end over its last two faces
@@ -185,14 +205,15 @@ export function buildSegments(inp: SegmentInput): SegmentOutput {
         const ci = c % nx, cj = (c - ci) / nx;
         const i0 = r.horizontal ? (first ? ci : ci + 1) : r.line;
         const j0 = r.horizontal ? r.line : first ? cj : cj + 1;
-        const [tD, tM] = fieldDesign.nodeTemperatures(i0, j0, c, sets);
+        const wn = nodeWeights(i0, j0, c);
+        const tD = superpose(wn, fieldDesign.tz), tM = superpose(wn, fieldMonth.tz);
         if (!Number.isFinite(tD)) continue;
         const d = Math.min(Math.max(tD, dLo), dHi), m = Math.min(Math.max(tM, mLo), mHi);
         if (m < tMinMonth) tMinMonth = m;
         if (d < tMin) {
           tMin = d;
           at = [xs[i0], ys[j0]];
-          weightsAt = { i0, j0, c };
+          weightsAt = wn;
         }
       }
     }
@@ -203,13 +224,7 @@ export function buildSegments(inp: SegmentInput): SegmentOutput {
     if (RANK[state] > RANK[verdict]) verdict = state;
     const weights: Record<string, number> = {};
     if (weightsAt) {
-      // Unit solutions (each zone at 1 K, the others at 0) read at the same node, in one patch solve.
-      const unitSets = inp.touch.map((z) => {
-        const tz = new Float64Array(zones.length);
-        tz[z] = 1;
-        return { x: unit(z), tz };
-      });
-      const w = fieldDesign.nodeTemperatures(weightsAt.i0, weightsAt.j0, weightsAt.c, unitSets);
+      const w = weightsAt;
       inp.touch.forEach((z, q) => { weights[zones[z].zoneId] = w[q]; });
     } else for (const z of inp.touch) weights[zones[z].zoneId] = unitTemp(r.ref[kMin], z);
     const fRsi = inp.twoZone && inp.indoor !== null ? weights[zones[inp.indoor].zoneId] : null;
