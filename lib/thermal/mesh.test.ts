@@ -48,3 +48,24 @@ describe('uneven grading', () => {
     for (let i = 1; i < a.length; i++) expect(Math.max(a[i] / a[i - 1], a[i - 1] / a[i])).toBeLessThan(1.3 + 1e-9);
   });
 });
+
+describe('growth along y', () => {
+  it('grades only the y-lines with growthY, and keeps them within that ratio', () => {
+    const r = resolveSection(TEMPLATES.find((t) => t.name === 'basement-inside-framed')!.build());
+    const solids = r.solids.map((s) => ({ polygon: s.polygon, ground: s.materialId.startsWith('soil') }));
+    const zones = r.zones.map((z) => ({ polygon: z.polygon }));
+    const base = { ...MESH_LEVELS.default, growthY: undefined };
+    const a = buildMesh(solids, zones, base);
+    const b = buildMesh(solids, zones, { ...base, growthY: 1.2 });
+    expect(Array.from(b.xs)).toEqual(Array.from(a.xs));
+    expect(b.ys.length).toBeGreaterThan(a.ys.length);
+    // Neighbouring y-cells differ by at most the y growth wherever neither is capped at hmax or
+    // hmaxGround, or fitted to a short interval (those end a graded run; allow the fit's slack).
+    let steeper = 0;
+    for (let j = 1; j + 1 < b.ys.length; j++) {
+      const h1 = b.ys[j] - b.ys[j - 1], h2 = b.ys[j + 1] - b.ys[j];
+      if (Math.max(h1 / h2, h2 / h1) > 1.3 - 1e-9) steeper++;
+    }
+    expect(steeper / b.ys.length).toBeLessThan(0.05);
+  });
+});

@@ -19,6 +19,12 @@ export interface MeshSpec {
   h0: number;
   /** Geometric growth factor away from a line. */
   growth: number;
+  /**
+   * Growth factor away from horizontal lines (the spacing of the y-lines), when it differs: the ground
+   * surface is horizontal, and the net flow of a ground-surface zone (heat into the ground near the
+   * building, most of it back out further away) converges with the vertical spacing there.
+   */
+  growthY?: number;
   /** Largest cell in intervals spanned by a construction solid, m. */
   hmax: number;
   /** Largest cell in intervals spanned by ground only, m. */
@@ -36,7 +42,7 @@ export const MESH_LEVELS: Record<MeshLevel, MeshSpec> = {
   // sizes: the grid lines include every vertex, so a membrane is its own row (see gradeInterval).
   // No finer lines through surface singular points here (the release solves at the default mesh).
   preview: { h0: 0.016, growth: 2.0, hmax: 0.1, hmaxGround: 2.0 },
-  default: { h0: 0.004, growth: 1.3, hmax: 0.05, hmaxGround: 1.0, h0Point: 0.001 },
+  default: { h0: 0.004, growth: 1.3, growthY: 1.25, hmax: 0.05, hmaxGround: 1.0, h0Point: 0.001 },
   fine: { h0: 0.002, growth: 1.15, hmax: 0.025, hmaxGround: 0.25, h0Point: 0.0005 },
 };
 
@@ -207,7 +213,8 @@ export function buildMesh(solids: readonly GeometrySolid[], zones: readonly Geom
     if (sloped || d - c <= b - a) spanY.push({ lo: c, hi: d });
   }
   const sing = spec.h0Point !== undefined && spec.h0Point < spec.h0 ? singularPoints(solids, zones, kx, ky, loX, hiX, loY, hiY) : [];
-  const xs = lines(kx, spanX, spec, sing.map((p) => p[0])), ys = lines(ky, spanY, spec, sing.map((p) => p[1]));
+  const specY = spec.growthY !== undefined ? { ...spec, growth: spec.growthY } : spec;
+  const xs = lines(kx, spanX, spec, sing.map((p) => p[0])), ys = lines(ky, spanY, specY, sing.map((p) => p[1]));
   const nx = xs.length - 1, ny = ys.length - 1;
   const xc = new Float64Array(nx), yc = new Float64Array(ny);
   for (let i = 0; i < nx; i++) xc[i] = 0.5 * (xs[i] + xs[i + 1]);
