@@ -150,17 +150,17 @@ export class TemperatureField {
    * less than a cell (a conductive part touching the surface at a point, a surface that turns, a
    * surface condition that changes), so reading the centre of the first face makes the answer move
    * with the cell size. Instead: the NODE_PATCH_CELLS coarse cells on each side of the node are split
-   * NODE_PATCH_SPLIT times in each direction (same materials, zones and surface resistances: every
+   * `split` (NODE_PATCH_SPLIT unless given) times in each direction (same materials, zones and surface resistances: every
    * part edge is a grid line), the patch is solved with the coarse solution's face-level
    * temperatures on its cut edges (fixed values: the point reconstruction, at()), and the node value is
    * the planar extrapolation, from the centre and the two faces meeting at the node, of the adjacent
    * sub-cell of highest conductivity (the segment's own cell, `prefer`, on a tie). Linear in the set
    * (weights from unit solutions add up); exact for a 1-D field. NaN when the patch has no fixed value.
    */
-  nodeTemperatures(i0: number, j0: number, prefer: number, sets: readonly TemperatureSet[]): number[] {
+  nodeTemperatures(i0: number, j0: number, prefer: number, sets: readonly TemperatureSet[], split = NODE_PATCH_SPLIT): number[] {
     const { mesh, unknownOf, faces } = this.sys;
     const { nx, ny, xs, ys, owner } = mesh;
-    const P = NODE_PATCH_CELLS, K = NODE_PATCH_SPLIT;
+    const P = NODE_PATCH_CELLS, K = split;
     const ia = Math.max(0, i0 - P), ib = Math.min(nx, i0 + P), ja = Math.max(0, j0 - P), jb = Math.min(ny, j0 + P);
     const mx = (ib - ia) * K, my = (jb - ja) * K;
     const sx = new Float64Array(mx + 1), sy = new Float64Array(my + 1);

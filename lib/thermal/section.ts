@@ -240,6 +240,7 @@ export function* solveSectionSteps(snapshot: SectionSnapshot, options: SolveOpti
     fieldDesign: fieldSurf, fieldMonth: fieldSurfMonth,
     unitSurface: (z) => unit.surface.get(zoneIds[z])!,
     g: gSurf,
+    cornerSplit: spec.cornerSplit,
   });
 
   const psiOut = buildPsi({ resolved, materials, l2d, indoor, rules, snapshot });

@@ -8,6 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { buildSection, rect } from '../validation/build';
+import { MESH_LEVELS } from './mesh';
 import { solveSectionSync } from './section';
 
 // ISO 13788 saturation pressure over water (Annex E formula, written out here independently of lib/psychro).
@@ -181,5 +182,15 @@ describe('coldest point at a corner where a conductive part touches the room at 
     expect(Math.abs(f.t - ref.t)).toBeLessThan(0.05);
     // Superposition holds at the corner too.
     expect(d.weights.room * 20 + d.weights.out * -10).toBeCloseTo(d.t, 6);
+  });
+
+  it('with the preview level\'s coarser corner patch (cells split in 2, not 4) reads the same corner, within 0.2 K of the split of 4', () => {
+    const two = cold('preview');
+    const four = cold({ ...MESH_LEVELS.preview, cornerSplit: 4 });
+    expect(MESH_LEVELS.preview.cornerSplit).toBe(2);
+    for (const c of [two, four]) expect(Math.hypot(c.at[0], c.at[1])).toBeLessThan(1e-9);
+    expect(two.t).not.toBe(four.t); // the option reaches the patch
+    expect(Math.abs(two.t - four.t)).toBeLessThan(0.2);
+    expect(two.weights.room * 20 + two.weights.out * -10).toBeCloseTo(two.t, 6);
   });
 });

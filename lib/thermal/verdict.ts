@@ -26,6 +26,8 @@ export interface SegmentInput {
   fieldMonth: TemperatureField;
   unitSurface(z: number): Float64Array;
   g: Float64Array;
+  /** Sub-cells per cell and direction in the corner readings' local solves (field.ts); absent: its default. */
+  cornerSplit?: number;
 }
 
 export interface SegmentOutput {
@@ -170,7 +172,7 @@ export function buildSegments(inp: SegmentInput): SegmentOutput {
   const nodeWeights = (i0: number, j0: number, c: number): number[] => {
     const key = `${i0},${j0},${c}`;
     let w = nodeCache.get(key);
-    if (!w) { w = fieldDesign.nodeTemperatures(i0, j0, c, unitSets); nodeCache.set(key, w); }
+    if (!w) { w = fieldDesign.nodeTemperatures(i0, j0, c, unitSets, inp.cornerSplit); nodeCache.set(key, w); }
     return w;
   };
   const superpose = (w: readonly number[], tz: ArrayLike<number>): number => {
