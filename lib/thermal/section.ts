@@ -23,7 +23,7 @@ import { buildPsi } from './psi';
 import type { Run, ZoneRule } from './rs';
 import { describeRule, interiorKind } from './rs';
 import type { CancelToken, StopRule, UnitSolveStats } from './solve';
-import { DEFAULT_STOP, energyBalance, runAsync, runSync, solveUnit } from './solve';
+import { DEFAULT_STOP, PREVIEW_STOP, energyBalance, runAsync, runSync, solveUnit } from './solve';
 import type { Assumption, Coupling, SectionResults, UnitSolveReport, ZoneResult } from './types';
 import { buildSegments } from './verdict';
 
@@ -160,7 +160,7 @@ export function* solveSectionSteps(snapshot: SectionSnapshot, options: SolveOpti
   const pre = new GridVCycle(hierarchy);
   const t3 = now();
 
-  const stop: StopRule = { ...DEFAULT_STOP, ...options.stop };
+  const stop: StopRule = { ...(level === 'preview' ? PREVIEW_STOP : DEFAULT_STOP), ...options.stop };
   const prevState = options.warmStart ? warmStates.get(options.warmStart) ?? null : null;
   const unit: Record<Run, Map<string, Float64Array>> = { heat: new Map(), surface: new Map() };
   const reports: UnitSolveReport[] = [];

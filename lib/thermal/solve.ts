@@ -22,6 +22,14 @@ export interface StopRule {
 
 export const DEFAULT_STOP: StopRule = { rtol: 1e-10, ftol: 1e-5, btol: 1e-5, maxIterations: 500 };
 
+/**
+ * The preview level's stop (drag rate; every release solves again at the default mesh): flows settled
+ * to 1e-3 of the largest per iteration and balanced to 1e-4. Measured on the templates over a 25-step
+ * drag with warm starts: about 40 % fewer iterations than DEFAULT_STOP, coldest point within 0.003 K
+ * and L2D within 0.003 % of a cold solve at DEFAULT_STOP, energy balance at most 8.5e-5.
+ */
+export const PREVIEW_STOP: StopRule = { ...DEFAULT_STOP, ftol: 1e-3, btol: 1e-4 };
+
 export interface UnitSolveStats {
   zone: number;
   iterations: number;
