@@ -1,7 +1,7 @@
 /**
  * The coarsest grid level factored with banded Cholesky (../band.ts). The level's points are
  * numbered along its short side fastest, so a 9-point stencil couples each point only to points
- * within (short side + 1) of it, and the factor costs n * bandwidth^2 (a 32 x 32 level: about 10^6
+ * within (short side + 1) of it, and the factor costs n * bandwidth^2 (a 21 x 21 level, the largest the hierarchy keeps by default: about 2 x 10^5
  * multiply-adds) instead of n^3 / 3.
  */
 import { choleskyBand, solveBand } from '../band';

@@ -76,7 +76,7 @@ function maxAspect(dx: Float64Array, dy: Float64Array): number {
 }
 
 export function buildGridHierarchy(a: Csr, cellOf: Int32Array, nx: number, ny: number, opts: GridHierarchyOptions = {}): GridHierarchy {
-  const coarseCost = opts.coarseCost ?? 2e6;
+  const coarseCost = opts.coarseCost ?? 2e5;
   const { level, gridOf } = fineLevelFromCsr(a, cellOf, nx, ny);
   const levels: GridLevel[] = [level];
   const prolongators: Prolongator[] = [];
