@@ -47,7 +47,7 @@ export const MESH_LEVELS: Record<MeshLevel, MeshSpec> = {
   // sizes: the grid lines include every vertex, so a membrane is its own row (see gradeInterval).
   // No finer lines through surface singular points here (the release solves at the default mesh).
   // Corner readings split each cell in 2, not 4: a fifth of the cost (3-9 ms a preview instead of
-  // 11-35), and the coldest point moves by 0.01 to 0.15 K on the templates (docs/bench-ui.md).
+  // 11-35), and the coldest point moves by 0.01 to 0.15 K on the templates (docs/solver.md, section 5).
   preview: { h0: 0.016, growth: 2.0, hmax: 0.1, hmaxGround: 2.0, cornerSplit: 2 },
   default: { h0: 0.004, growth: 1.3, growthY: 1.25, hmax: 0.05, hmaxGround: 1.0, h0Point: 0.001 },
   fine: { h0: 0.002, growth: 1.15, hmax: 0.025, hmaxGround: 0.25, h0Point: 0.0005 },
