@@ -79,10 +79,12 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
         {r.surfaces.map((s) => {
           const sty = styleFor(s.state);
           const pts = [s.from[0], s.from[1], s.to[0], s.to[1]];
+          // The stroke is not scaled (Konva strokes it in screen pixels), so the dash is in pixels too:
+          // dashes of 1/k px cost tens of ms to rasterise per result and drew the line as solid.
           return (
             <Group key={s.id} listening={false}>
               <Line points={pts} stroke="#ffffff" strokeWidth={sty.width + 3} strokeScaleEnabled={false} opacity={0.85} perfectDrawEnabled={false} />
-              <Line points={pts} stroke={sty.stroke} strokeWidth={sty.width} dash={sty.dash.length ? sty.dash.map((d) => d * px) : undefined} strokeScaleEnabled={false} lineCap={s.state === 'condensation' ? 'round' : 'butt'} perfectDrawEnabled={false} />
+              <Line points={pts} stroke={sty.stroke} strokeWidth={sty.width} dash={sty.dash.length ? sty.dash : undefined} strokeScaleEnabled={false} lineCap={s.state === 'condensation' ? 'round' : 'butt'} perfectDrawEnabled={false} />
             </Group>
           );
         })}
