@@ -11,7 +11,7 @@ import type { SectionResults } from '@/lib/thermal/types';
 import type { GridField } from './colour';
 import type { Isotherm } from './contours';
 import type { LiveOptions } from './options';
-import type { FromWorker, Raster, ToWorker } from './protocol';
+import type { FromWorker, Raster, ToWorker, WorkParts } from './protocol';
 import type { Effect, Mesh } from './scheduler';
 import { Scheduler } from './scheduler';
 
@@ -40,6 +40,18 @@ export interface LiveState {
 /** Opacity of the colour raster over the parts, 0 to 255. */
 export const RASTER_ALPHA = 235;
 
+/**
+ * The page's record of its traffic with the worker, for the benchmark (window.__dewline.liveLog): every
+ * request posted, every result and cancel received, on the page's clock (timeOrigin + now, ms). Bounded.
+ */
+export interface DeliveryLog {
+  posts: { id: number; mesh: Mesh; at: number }[];
+  results: { id: number; mesh: Mesh | null; sentAt: number; startedAt: number; postedAt: number; handledAt: number; ms: number; parts: WorkParts | null; shown: boolean }[];
+  cancelled: { id: number; at: number }[];
+}
+const LOG_MAX = 4000;
+const pushBounded = <T,>(a: T[], x: T) => { a.push(x); if (a.length > LOG_MAX) a.splice(0, a.length - LOG_MAX); };
+
 export interface Baseline { results: SectionResults; snapshot: SectionSnapshot }
 
 export class LiveSession {
@@ -53,6 +65,7 @@ export class LiveSession {
   private lastSent = { version: -1, mesh: '' as string };
   private snapshots = new Map<number, SectionSnapshot>();
   private off: (() => void)[] = [];
+  readonly log: DeliveryLog = { posts: [], results: [], cancelled: [] };
 
   /** `options` (optional): the viewer's isotherm interval is traced in the worker with each solve. */
   constructor(private readonly options: LiveOptions | null = null) {
@@ -128,7 +141,9 @@ export class LiveSession {
         const c = this.controller;
         const size = c?.size.get();
         const raster = c && size && (!o || o.colours) ? { view: c.view.get(), width: Math.max(1, Math.floor(size.width)), height: Math.max(1, Math.floor(size.height)), alpha: RASTER_ALPHA } : null;
-        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null, sentAt: performance.timeOrigin + performance.now(), raster });
+        const sentAt = performance.timeOrigin + performance.now();
+        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null, sentAt, raster });
+        pushBounded(this.log.posts, { id: e.req.id, mesh: e.req.mesh, at: sentAt });
         this.patch({ busy: { mesh: e.req.mesh, elapsedMs: 0 } });
       }
     }
@@ -145,6 +160,9 @@ export class LiveSession {
       return;
     }
     const req = this.sched.running && this.sched.running.id === m.id ? this.sched.running : null;
+    const handledAt = performance.timeOrigin + performance.now();
+    if (m.type === 'result') pushBounded(this.log.results, { id: m.id, mesh: req?.mesh ?? null, sentAt: m.sentAt ?? NaN, startedAt: m.startedAt ?? NaN, postedAt: m.postedAt ?? NaN, handledAt, ms: m.ms, parts: m.parts ?? null, shown: Scheduler.fresher(m.id, this.shownId) });
+    else if (m.type === 'cancelled') pushBounded(this.log.cancelled, { id: m.id, at: handledAt });
     if (m.type === 'result' && Scheduler.fresher(m.id, this.shownId)) {
       this.shownId = m.id;
       const version = req?.version ?? this.state.get().version;
@@ -174,5 +192,6 @@ function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, vers
   const w = window as unknown as { __dewline?: Record<string, unknown> };
   w.__dewline ??= {};
   w.__dewline.results = results;
+  w.__dewline.liveLog = s.log;
   w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), ms, cells: results.mesh.cells, ...lag, snapshot: s.controller?.snapshot() };
 }
