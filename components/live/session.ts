@@ -61,7 +61,7 @@ export class LiveSession {
   private worker: Worker | null = null;
   private sched = new Scheduler<SectionSnapshot>();
   private shownId = 0;
-  private raf = 0;
+  private queued = false;
   private lastSent = { version: -1, mesh: '' as string };
   private snapshots = new Map<number, SectionSnapshot>();
   private off: (() => void)[] = [];
@@ -88,24 +88,28 @@ export class LiveSession {
     this.worker?.terminate();
     this.worker = null;
     this.controller = null;
-    cancelAnimationFrame(this.raf);
-    this.raf = 0;
   }
 
   private patch(p: Partial<LiveState>) {
     this.state.set((s) => ({ ...s, ...p }));
   }
 
-  /** Coalesce changes to one request per animation frame. */
+  /**
+   * Coalesce changes to one request per task: the request is posted in a microtask after the change,
+   * not in the next animation frame. A drag applies its move inside the board's animation-frame callback,
+   * so waiting for the next frame held every request back by a frame, and by the whole of that frame's
+   * rendering when it was a long one; the worker, done with its preview, sat idle meanwhile.
+   */
   private schedule() {
     const c = this.controller;
     if (!c) return;
     // Patch only when staleness flips: a drag changes the drawing on every frame, and the readout need not re-render for it.
     const drawn = c.section.get().version, stale = this.state.get().version !== drawn;
     if (stale !== this.state.get().stale) this.patch({ drawn, stale });
-    if (this.raf) return;
-    this.raf = requestAnimationFrame(() => {
-      this.raf = 0;
+    if (this.queued) return;
+    this.queued = true;
+    queueMicrotask(() => {
+      this.queued = false;
       this.sendCurrent();
     });
   }
