@@ -93,31 +93,29 @@ describe('compare', () => {
 });
 
 describe('scheduler', () => {
-  it('posts every preview at once; a running preview finishes and only the newest waits', () => {
+  it('posts every request at once and keeps it until the worker answers; answers are matched by id', () => {
     const s = new Scheduler<string>();
     expect(s.request('a', 'preview', 1)).toEqual([{ type: 'send', req: { id: 1, snapshot: 'a', mesh: 'preview', version: 1 } }]);
     expect(s.request('b', 'preview', 2)).toEqual([{ type: 'send', req: { id: 2, snapshot: 'b', mesh: 'preview', version: 2 } }]);
-    expect(s.request('c', 'preview', 3)).toEqual([{ type: 'send', req: { id: 3, snapshot: 'c', mesh: 'preview', version: 3 } }]);
-    expect(s.waiting?.id).toBe(3);
-    // The worker starts the waiting one itself: nothing more to send.
-    expect(s.done(1)).toEqual([]);
-    expect(s.running?.id).toBe(3);
-    expect(s.done(2)).toEqual([]); // dropped in the worker: no change here
-    expect(s.running?.id).toBe(3);
-    expect(s.done(3)).toEqual([]);
-    expect(s.running).toBeNull();
+    expect(s.request('c', 'default', 2)).toEqual([{ type: 'send', req: { id: 3, snapshot: 'c', mesh: 'default', version: 2 } }]);
+    expect(s.get(2)?.snapshot).toBe('b');
+    // The worker answered 2 (say it had started it before it saw 3): its own request, not the newest.
+    expect(s.done(2)).toEqual({ id: 2, snapshot: 'b', mesh: 'preview', version: 2 });
+    expect(s.done(2)).toBeNull(); // answered once
+    expect(s.busy).toBe(true);
+    expect(s.done(1)?.version).toBe(1);
+    expect(s.done(3)?.mesh).toBe('default');
+    expect(s.busy).toBe(false);
+    expect(Scheduler.fresher(2, 3)).toBe(false);
+    expect(Scheduler.fresher(4, 3)).toBe(true);
   });
-  it('a release cancels the running solve and supersedes the waiting one', () => {
+  it('a stop cancels every unanswered request', () => {
     const s = new Scheduler<string>();
     s.request('a', 'preview', 1);
     s.request('b', 'preview', 2);
-    const e = s.request('c', 'default', 2);
-    expect(e).toEqual([{ type: 'cancel', id: 1 }, { type: 'send', req: { id: 3, snapshot: 'c', mesh: 'default', version: 2 } }]);
-    // The cancelled one reporting back changes nothing.
-    expect(s.done(1)).toEqual([]);
-    expect(s.running?.id).toBe(3);
-    expect(s.stop()).toEqual([{ type: 'cancel', id: 3 }]);
-    expect(Scheduler.fresher(2, 3)).toBe(false);
+    s.done(1);
+    s.request('c', 'default', 3);
+    expect(s.stop()).toEqual([{ type: 'cancel', id: 2 }, { type: 'cancel', id: 3 }]);
   });
 });
 
@@ -144,36 +142,65 @@ describe('solve queue in the worker', () => {
     expect(q.running).toBeNull();
     expect(q.cancel(9)).toEqual([]);
   });
-  it('page and worker agree on what runs and what waits, over random requests, results and stops', () => {
+  it('with messages in flight both ways, every request is answered once and every answer finds its own request', () => {
     let seed = 7;
     const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
-    for (let run = 0; run < 200; run++) {
+    type Job = { id: number; mesh: 'preview' | 'default' | 'fine'; snapshot: string };
+    type Answer = { type: 'result' | 'cancelled'; id: number; snapshot?: string };
+    for (let run = 0; run < 300; run++) {
       const page = new Scheduler<string>();
-      const worker = new SolveQueue<{ id: number; mesh: 'preview' | 'default' | 'fine' }>();
+      const worker = new SolveQueue<Job>();
+      const toWorker: ({ type: 'solve'; job: Job } | { type: 'cancel'; id: number })[] = [];
+      const toPage: Answer[] = [];
       const started: number[] = [];
-      const toWorker = (effects: ReturnType<typeof page.request>) => {
-        for (const e of effects) {
-          const acts = e.type === 'cancel' ? worker.cancel(e.id) : worker.solve({ id: e.req.id, mesh: e.req.mesh });
-          for (const a of acts) {
-            if (a.type === 'start') started.push(a.job.id);
-            if (a.type === 'drop') page.done(a.id); // the worker reports it cancelled
-            if (a.type === 'abort') finish(a.id);
-          }
+      const answered = new Map<number, number>();
+      let posted = 0;
+      const work = (acts: ReturnType<typeof worker.solve>) => {
+        for (const a of acts) {
+          if (a.type === 'start') started.push(a.job.id);
+          if (a.type === 'drop') toPage.push({ type: 'cancelled', id: a.id });
+          if (a.type === 'abort') { toPage.push({ type: 'cancelled', id: a.id }); work(worker.finished(a.id)); }
         }
       };
-      const finish = (id: number) => {
-        for (const a of worker.finished(id)) if (a.type === 'start') started.push(a.job.id);
-        page.done(id);
+      const send = (effects: ReturnType<typeof page.request>) => {
+        for (const e of effects) toWorker.push(e.type === 'cancel' ? e : { type: 'solve', job: { id: e.req.id, mesh: e.req.mesh, snapshot: e.req.snapshot } });
       };
-      for (let step = 0; step < 40; step++) {
+      const deliverToWorker = () => {
+        const m = toWorker.shift();
+        if (m) work(m.type === 'cancel' ? worker.cancel(m.id) : worker.solve(m.job));
+      };
+      const finish = () => {
+        const j = worker.running;
+        if (!j) return;
+        toPage.push({ type: 'result', id: j.id, snapshot: j.snapshot });
+        work(worker.finished(j.id));
+      };
+      const deliverToPage = () => {
+        const m = toPage.shift();
+        if (!m) return;
+        answered.set(m.id, (answered.get(m.id) ?? 0) + 1);
+        const req = page.done(m.id);
+        // The answer belongs to a request the page posted and still held, and a result is of that very drawing.
+        expect(req?.id).toBe(m.id);
+        if (m.type === 'result') expect(req?.snapshot).toBe(m.snapshot);
+      };
+      for (let step = 0; step < 60; step++) {
         const x = rnd();
-        if (x < 0.55) toWorker(page.request('s', rnd() < 0.8 ? 'preview' : 'default', step));
-        else if (x < 0.9) { if (worker.running) finish(worker.running.id); }
-        else toWorker(page.stop());
-        expect(page.running?.id ?? null).toBe(worker.running?.id ?? null);
-        expect(page.waiting?.id ?? null).toBe(worker.pending?.id ?? null);
+        if (x < 0.35) { posted++; send(page.request(`s${posted}`, rnd() < 0.8 ? 'preview' : 'default', step)); }
+        else if (x < 0.55) deliverToWorker();
+        else if (x < 0.7) finish();
+        else if (x < 0.95) deliverToPage();
+        else send(page.stop());
       }
-      // No job starts twice.
+      // Let everything arrive and every solve end.
+      for (let k = 0; k < 1000 && (toWorker.length || toPage.length || worker.running); k++) {
+        deliverToWorker();
+        finish();
+        deliverToPage();
+      }
+      expect(answered.size).toBe(posted);
+      expect([...answered.values()].every((n) => n === 1)).toBe(true);
+      expect(page.busy).toBe(false);
       expect(new Set(started).size).toBe(started.length);
     }
   });

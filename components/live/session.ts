@@ -151,7 +151,7 @@ export class LiveSession {
         this.patch({ busy: { mesh: e.req.mesh, elapsedMs: 0 } });
       }
     }
-    if (!this.sched.running) this.patch({ busy: null });
+    if (!this.sched.busy) this.patch({ busy: null });
   }
 
   private post(m: ToWorker) {
@@ -160,10 +160,12 @@ export class LiveSession {
 
   private receive(m: FromWorker) {
     if (m.type === 'progress') {
-      if (this.sched.running?.id === m.id) this.patch({ busy: { mesh: this.sched.running.mesh, elapsedMs: m.elapsedMs } });
+      const r = this.sched.get(m.id);
+      if (r && !this.state.get().stopped) this.patch({ busy: { mesh: r.mesh, elapsedMs: m.elapsedMs } });
       return;
     }
-    const req = this.sched.running && this.sched.running.id === m.id ? this.sched.running : null;
+    // Every request is answered once; look it up by id (the worker may have started an older one than the page last posted).
+    const req = this.sched.done(m.id);
     const handledAt = performance.timeOrigin + performance.now();
     if (m.type === 'result') pushBounded(this.log.results, { id: m.id, mesh: req?.mesh ?? null, sentAt: m.sentAt ?? NaN, startedAt: m.startedAt ?? NaN, postedAt: m.postedAt ?? NaN, handledAt, ms: m.ms, parts: m.parts ?? null, shown: Scheduler.fresher(m.id, this.shownId) });
     else if (m.type === 'cancelled') pushBounded(this.log.cancelled, { id: m.id, at: handledAt });
@@ -179,9 +181,9 @@ export class LiveSession {
       const lag = { toWorkerMs: m.startedAt !== undefined && m.sentAt !== undefined ? m.startedAt - m.sentAt : NaN, backMs: m.postedAt !== undefined ? now - m.postedAt : NaN };
       expose(this, m.results, req?.mesh ?? null, version, m.ms, lag);
     } else if (m.type === 'error' && req) this.patch({ error: m.message });
-    this.apply(this.sched.done(m.id));
+    if (!this.sched.busy) this.patch({ busy: null });
     // A preview that finished after the release, or anything missed: make sure the drawing gets its default solve.
-    if (!this.sched.running && this.controller && !this.controller.isDragging() && this.lastSent.mesh !== 'default') this.sendCurrent();
+    if (!this.sched.busy && this.controller && !this.controller.isDragging() && this.lastSent.mesh !== 'default') this.sendCurrent();
   }
 
   pinBaseline() {
