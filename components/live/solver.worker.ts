@@ -85,7 +85,11 @@ async function run(m: SolveMessage) {
   } finally {
     clearInterval(timer);
     tokens.delete(id);
-    // The waiting preview starts here at once, without a round trip through the page.
+    // The waiting preview starts here, without a round trip through the page. First one trip through the
+    // event loop: the solve's last slice (the results) runs for tens of milliseconds without a pause, and
+    // the page's newer requests posted meanwhile are read only now; without the trip the worker started
+    // the request it held from before that slice, a drawing already several moves old.
+    await pause();
     act(queue.finished(id));
   }
 }
