@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildLut, fieldAt, levels, rangeOf, rasterize } from './colour';
+import { buildLut, fieldAt, levels, rangeOf, rasterFrame, rasterize } from './colour';
 import type { GridField } from './colour';
 import { gridToWorld, isotherms } from './contours';
 import { diffResults, signed } from './diff';
@@ -40,6 +40,32 @@ describe('colours', () => {
     expect(px(105, 100)[3]).toBe(0);
     expect(fieldAt(f, 0.45, 1.5)).toBeCloseTo(10 * cx(2));
     expect(Number.isNaN(fieldAt(f, 0.2, 0.75))).toBe(true);
+  });
+  it('a half-resolution raster paints each pixel with the cell under the centre of the 2 x 2 screen pixels it stands for', () => {
+    const f = linear(5);
+    const lut = buildLut();
+    const view = { k: 100, ox: 3, oy: 205 };
+    const full = rasterFrame(view, 111, 201);
+    expect(full).toEqual({ view, width: 111, height: 201 });
+    const half = rasterFrame(view, 111, 201, 0.5);
+    expect(half.width).toBe(55);
+    expect(half.height).toBe(100);
+    const out = new Uint8ClampedArray(half.width * half.height * 4);
+    rasterize(f, { lo: 0, hi: 10 }, lut, half.view, half.width, half.height, out);
+    let checked = 0;
+    for (let j = 0; j < half.height; j += 7) for (let i = 0; i < half.width; i += 5) {
+      // The centre of screen pixels 2i..2i+1, 2j..2j+1 is the screen point (2i + 1, 2j + 1).
+      const x = (2 * i + 1 - view.ox) / view.k, y = (view.oy - (2 * j + 1)) / view.k;
+      const t = fieldAt(f, x, y);
+      const p = (j * half.width + i) * 4;
+      if (Number.isNaN(t)) expect(out[p + 3]).toBe(0);
+      else {
+        const q = Math.round((t / 10) * 255);
+        expect([out[p], out[p + 1], out[p + 2], out[p + 3]]).toEqual([lut[q * 3], lut[q * 3 + 1], lut[q * 3 + 2], 255]);
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThan(50);
   });
   it('levels at an interval inside the range', () => {
     expect(levels({ lo: -18, hi: 20 }, 5)).toEqual([-15, -10, -5, 0, 5, 10, 15]);

@@ -9,6 +9,7 @@ import { createStore } from '@/components/board/store';
 import type { SectionSnapshot } from '@/lib/section/schema';
 import type { SectionResults } from '@/lib/thermal/types';
 import type { GridField } from './colour';
+import { PREVIEW_RASTER_SCALE, rasterFrame } from './colour';
 import type { Isotherm } from './contours';
 import type { LiveOptions } from './options';
 import type { FromWorker, Raster, ToWorker, WorkParts } from './protocol';
@@ -36,6 +37,9 @@ export interface LiveState {
   /** The colours painted by the worker for the view of the request (the overlay paints them itself for any other view). */
   raster: Raster | null;
 }
+
+/** Resolution of the colour raster for results of a mesh level: lower for previews (see PREVIEW_RASTER_SCALE). */
+export const rasterScale = (mesh: Mesh | null): number => (mesh === 'preview' ? PREVIEW_RASTER_SCALE : 1);
 
 /** Opacity of the colour raster over the parts, 0 to 255. */
 export const RASTER_ALPHA = 235;
@@ -144,7 +148,8 @@ export class LiveSession {
         const o = this.options?.get();
         const c = this.controller;
         const size = c?.size.get();
-        const raster = c && size && (!o || o.colours) ? { view: c.view.get(), width: Math.max(1, Math.floor(size.width)), height: Math.max(1, Math.floor(size.height)), alpha: RASTER_ALPHA } : null;
+        // Previews (a drag) are painted at a lower resolution: a quarter of the pixels to paint, send and draw.
+        const raster = c && size && (!o || o.colours) ? { ...rasterFrame(c.view.get(), size.width, size.height, rasterScale(e.req.mesh)), alpha: RASTER_ALPHA } : null;
         const sentAt = performance.timeOrigin + performance.now();
         this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null, sentAt, raster });
         pushBounded(this.log.posts, { id: e.req.id, mesh: e.req.mesh, at: sentAt });
