@@ -18,6 +18,7 @@ import { fillStyle, fillTile, TILE_RES, ZONE_STYLES } from './fills';
 import { boxOf } from './hit';
 import type { OutlineItem } from './rigid';
 import { rigidShift } from './rigid';
+import { keepUnchanged } from './stable';
 import { useStore } from './store';
 import { gridSpacing, patternBucket, toScreen } from './view';
 
@@ -368,6 +369,7 @@ function ScreenLayer() {
   const st = useStore(c.section);
   const tr = useStore(c.transient);
   const size = useStore(c.size);
+  const kept = useRef<ReactNode[] | null>(null);
   const sp = (p: readonly [number, number]) => toScreen(v, p);
   const out: ReactNode[] = [];
 
@@ -426,7 +428,11 @@ function ScreenLayer() {
   }
   if (tr.refusal) out.push(<Label key="refusal" x={tr.refusal.sx + 14} y={tr.refusal.sy + 18} text={tr.refusal.text.split('\n')[0]} tone="error" />);
 
-  return <Layer listening={false}>{out}</Layer>;
+  // This layer re-renders on every move of a drag (it reads the section and the transient state); hand
+  // React the previous elements where nothing changed (cut lines, zone labels), so the canvas is not redrawn.
+  const nodes = keepUnchanged(kept.current, out);
+  kept.current = nodes;
+  return <Layer listening={false}>{nodes}</Layer>;
 }
 
 function pointerInput(e: React.PointerEvent | PointerEvent, el: HTMLElement): PointerInput {
