@@ -141,7 +141,7 @@ interface Figures {
  *   - posts/s: requests the page posted; thrown: results not shown (older than one shown);
  *   - the worker's time per preview, split into the solve, isotherms and raster painting (medians);
  *   - result bytes: the last preview result as structured-clone payload (JSON length of the results
- *     object; field and pixels are transferred buffers, counted apart).
+ *     object; field and pixels are transferred buffers, counted apart: the raster as the worker sent it).
  */
 interface Delivery {
   busy: number;
@@ -160,7 +160,7 @@ interface Delivery {
   rasterBytes: number;
 }
 
-interface LogEntry { id: number; mesh: string | null; sentAt: number; startedAt: number; postedAt: number; handledAt: number; ms: number; parts: { solveMs: number; isoMs: number; rasterMs: number } | null; shown: boolean }
+interface LogEntry { id: number; mesh: string | null; sentAt: number; startedAt: number; postedAt: number; handledAt: number; ms: number; parts: { solveMs: number; isoMs: number; rasterMs: number } | null; rasterBytes?: number; shown: boolean }
 
 function deliveryOf(log: { posts: { id: number; mesh: string; at: number }[]; results: LogEntry[] }, from: number, to: number, sizes: { json: number; field: number; raster: number }): Delivery {
   const rs = log.results.filter((r) => r.mesh === 'preview' && r.postedAt >= from && r.postedAt <= to).sort((a, b) => a.startedAt - b.startedAt);
@@ -189,7 +189,7 @@ function deliveryOf(log: { posts: { id: number; mesh: string; at: number }[]; re
     backMsMedian: med(rs.map((r) => r.handledAt - r.postedAt)),
     resultJsonBytes: sizes.json,
     fieldBytes: sizes.field,
-    rasterBytes: sizes.raster,
+    rasterBytes: rs.length && rs[rs.length - 1].rasterBytes !== undefined ? rs[rs.length - 1].rasterBytes! : sizes.raster,
   };
 }
 

@@ -50,7 +50,7 @@ export const RASTER_ALPHA = 235;
  */
 export interface DeliveryLog {
   posts: { id: number; mesh: Mesh; at: number }[];
-  results: { id: number; mesh: Mesh | null; sentAt: number; startedAt: number; postedAt: number; handledAt: number; ms: number; parts: WorkParts | null; shown: boolean }[];
+  results: { id: number; mesh: Mesh | null; sentAt: number; startedAt: number; postedAt: number; handledAt: number; ms: number; parts: WorkParts | null; rasterBytes: number; shown: boolean }[];
   cancelled: { id: number; at: number }[];
 }
 const LOG_MAX = 4000;
@@ -172,7 +172,7 @@ export class LiveSession {
     // Every request is answered once; look it up by id (the worker may have started an older one than the page last posted).
     const req = this.sched.done(m.id);
     const handledAt = performance.timeOrigin + performance.now();
-    if (m.type === 'result') pushBounded(this.log.results, { id: m.id, mesh: req?.mesh ?? null, sentAt: m.sentAt ?? NaN, startedAt: m.startedAt ?? NaN, postedAt: m.postedAt ?? NaN, handledAt, ms: m.ms, parts: m.parts ?? null, shown: Scheduler.fresher(m.id, this.shownId) });
+    if (m.type === 'result') pushBounded(this.log.results, { id: m.id, mesh: req?.mesh ?? null, sentAt: m.sentAt ?? NaN, startedAt: m.startedAt ?? NaN, postedAt: m.postedAt ?? NaN, handledAt, ms: m.ms, parts: m.parts ?? null, rasterBytes: m.raster?.pixels.byteLength ?? 0, shown: Scheduler.fresher(m.id, this.shownId) });
     else if (m.type === 'cancelled') pushBounded(this.log.cancelled, { id: m.id, at: handledAt });
     if (m.type === 'result' && Scheduler.fresher(m.id, this.shownId)) {
       this.shownId = m.id;
