@@ -358,7 +358,7 @@ function SelectionLayer() {
     const el = layer.current?.getCanvas()._canvas;
     if (el) el.style.transform = sx || sy ? `translate(${sx}px, ${sy}px)` : '';
   });
-  return <Layer ref={layer} listening={false}>{base.current.nodes}</Layer>;
+  return <Layer ref={layer} name="selection" listening={false}>{base.current.nodes}</Layer>;
 }
 
 /** The top layer: everything else drawn in screen pixels (zone labels, guides, drafts, cut lines, messages). */

@@ -148,7 +148,7 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
   // One layer (one canvas for the compositor to take) for colours, lines and marks.
   return (
     <>
-      <Layer ref={layerRef} listening={false}>
+      <Layer ref={layerRef} name="live" listening={false}>
         {opt.colours && <KImage ref={imgRef} image={canvas ?? undefined} x={0} y={0} width={size.width} height={size.height} opacity={dim ? 0.55 : 1} listening={false} />}
         <Group x={v.ox} y={v.oy} scaleX={v.k} scaleY={-v.k} opacity={dim ? 0.6 : 1} listening={false}>
           {world}
