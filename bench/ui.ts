@@ -39,6 +39,8 @@ const PROFILE = process.argv.includes('--profile');
 const TRACE = arg('--trace', '');
 /** --snap: drag with snapping on (grid and edges), as the tables before 2026-12-03 did; default: Alt held, no snapping. */
 const SNAP = process.argv.includes('--snap');
+/** --log FILE: also write the page's raw delivery log (requests, results, cancels) of the drag to FILE (one case). */
+const LOG = arg('--log', '');
 const TARGET_RPS = 10;
 const TARGET_TASK_MS = 50;
 
@@ -125,6 +127,70 @@ interface Figures {
   defaultSolveMs: number;
   defaultCells: number;
   dragMs: number;
+  delivery: Delivery;
+}
+
+/**
+ * The pipeline between page and worker during the drag, from the page's delivery log (every request
+ * posted, every result handled, the worker's start and post times; page and worker clocks agree within
+ * about 1 ms):
+ *   - busy: the share of the drag the worker spent on previews (start to post);
+ *   - gaps: the worker's idle time between posting one preview and starting the next, split into gaps
+ *     where the next request was already waiting (worker overhead) and gaps where the page had not yet
+ *     posted it (the worker waited for the page), with the median of each;
+ *   - posts/s: requests the page posted; thrown: results not shown (older than one shown);
+ *   - the worker's time per preview, split into the solve, isotherms and raster painting (medians);
+ *   - result bytes: the last preview result as structured-clone payload (JSON length of the results
+ *     object; field and pixels are transferred buffers, counted apart: the raster as the worker sent it).
+ */
+interface Delivery {
+  busy: number;
+  gapsQueued: number;
+  gapsQueuedMsMedian: number;
+  gapsWaitingPage: number;
+  gapsWaitingPageMsMedian: number;
+  postsPerSecond: number;
+  thrown: number;
+  solveMsMedian: number;
+  isoMsMedian: number;
+  rasterMsMedian: number;
+  backMsMedian: number;
+  resultJsonBytes: number;
+  fieldBytes: number;
+  rasterBytes: number;
+}
+
+interface LogEntry { id: number; mesh: string | null; sentAt: number; startedAt: number; postedAt: number; handledAt: number; ms: number; parts: { solveMs: number; isoMs: number; rasterMs: number } | null; rasterBytes?: number; shown: boolean }
+
+function deliveryOf(log: { posts: { id: number; mesh: string; at: number }[]; results: LogEntry[] }, from: number, to: number, sizes: { json: number; field: number; raster: number }): Delivery {
+  const rs = log.results.filter((r) => r.mesh === 'preview' && r.postedAt >= from && r.postedAt <= to).sort((a, b) => a.startedAt - b.startedAt);
+  const busyMs = rs.reduce((a, r) => a + (Math.min(r.postedAt, to) - Math.max(r.startedAt, from)), 0);
+  const queued: number[] = [], waiting: number[] = [];
+  for (let k = 1; k < rs.length; k++) {
+    const a = rs[k - 1], b = rs[k];
+    const gap = b.startedAt - a.postedAt;
+    // The request b was already in the worker's hands when a ended: any gap is the worker's own.
+    if (b.sentAt <= a.postedAt) queued.push(gap);
+    else waiting.push(gap);
+  }
+  const posts = log.posts.filter((p) => p.mesh === 'preview' && p.at >= from && p.at <= to).length;
+  const med = (xs: number[]) => quantile(xs, 0.5);
+  return {
+    busy: busyMs / (to - from),
+    gapsQueued: queued.length,
+    gapsQueuedMsMedian: med(queued),
+    gapsWaitingPage: waiting.length,
+    gapsWaitingPageMsMedian: med(waiting),
+    postsPerSecond: posts / ((to - from) / 1000),
+    thrown: rs.filter((r) => !r.shown).length,
+    solveMsMedian: med(rs.filter((r) => r.parts).map((r) => r.parts!.solveMs)),
+    isoMsMedian: med(rs.filter((r) => r.parts).map((r) => r.parts!.isoMs)),
+    rasterMsMedian: med(rs.filter((r) => r.parts).map((r) => r.parts!.rasterMs)),
+    backMsMedian: med(rs.map((r) => r.handledAt - r.postedAt)),
+    resultJsonBytes: sizes.json,
+    fieldBytes: sizes.field,
+    rasterBytes: rs.length && rs[rs.length - 1].rasterBytes !== undefined ? rs[rs.length - 1].rasterBytes! : sizes.raster,
+  };
 }
 
 const quantile = (xs: number[], q: number) => {
@@ -181,6 +247,11 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
     if (due > 0) await page.waitForTimeout(due);
   }
   const t1 = await page.evaluate(() => performance.now());
+  const sizes = await page.evaluate(() => {
+    const d = (window as unknown as { __dewline: { results?: unknown; live?: { cells: number } } }).__dewline;
+    const c = document.querySelector('[data-testid="board-canvas"]')!.getBoundingClientRect();
+    return { json: d.results ? JSON.stringify(d.results).length : 0, field: (d.live?.cells ?? 0) * 8, raster: Math.floor(c.width) * Math.floor(c.height) * 4 };
+  });
   if (cdp) printProfile((await cdp.send('Profiler.stop')).profile as unknown as CpuProfile);
   if (TRACE) {
     await page.context().browser()!.stopTracing();
@@ -191,6 +262,9 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
   if (!SNAP) await page.keyboard.up('Alt');
   if (!baseline) await waitSettled(page);
   await page.waitForTimeout(200);
+  const log = await page.evaluate(() => (window as unknown as { __dewline: { liveLog?: unknown } }).__dewline.liveLog ?? { posts: [], results: [] }) as { posts: { id: number; mesh: string; at: number }[]; results: LogEntry[] };
+  const origin = await page.evaluate(() => performance.timeOrigin);
+  if (LOG) fs.writeFileSync(LOG, JSON.stringify({ from: origin + t0, to: origin + t1, ...log }, null, 1));
   const b = await page.evaluate(() => (window as unknown as { __bench: { frames: number[]; tasks: { at: number; ms: number }[]; results: { at: number; mesh: string; version: number; ms: number; cells: number; toWorkerMs?: number; backMs?: number }[]; drawn: number[] } }).__bench);
   const idle = intervals(b.frames.filter((t) => t < t0));
   const drag = intervals(b.frames.filter((t) => t >= t0 && t <= t1));
@@ -218,6 +292,7 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
     defaultSolveMs: last?.ms ?? NaN,
     defaultCells: last?.cells ?? NaN,
     dragMs: t1 - t0,
+    delivery: deliveryOf(log, origin + t0, origin + t1, sizes),
   };
 }
 
@@ -281,6 +356,13 @@ function report(all: Figures[]) {
       `${f1(f.toWorkerMsMedian)} / ${f1(f.backMsMedian)}`,
       `${f1(f.defaultSolveMs)} (${f.defaultCells})`,
     ].join(' | '));
+  }
+  console.log('\ndelivery during the drag (page <-> worker): worker busy share; worker idle gaps with the next request already queued (count, median ms) and waiting for the page to post (count, median ms); requests posted/s; results thrown away; worker ms per preview split into solve / isotherms / raster (medians); result to page ms; message: results JSON bytes, field bytes, raster bytes (transferred)');
+  console.log(['section', 'worker busy', 'gaps queued (ms)', 'gaps waiting for page (ms)', 'posts/s', 'thrown', 'solve / iso / raster ms', 'back to page ms', 'JSON / field / raster bytes'].join(' | '));
+  for (const f of all) {
+    const d = f.delivery;
+    if (!f.previewResults) continue;
+    console.log([f.name, `${(d.busy * 100).toFixed(0)} %`, `${d.gapsQueued} (${f1(d.gapsQueuedMsMedian)})`, `${d.gapsWaitingPage} (${f1(d.gapsWaitingPageMsMedian)})`, d.postsPerSecond.toFixed(1), d.thrown, `${f1(d.solveMsMedian)} / ${f1(d.isoMsMedian)} / ${f1(d.rasterMsMedian)}`, f1(d.backMsMedian), `${d.resultJsonBytes} / ${d.fieldBytes} / ${d.rasterBytes}`].join(' | '));
   }
   console.log('');
   const base = all.find((f) => f.name.startsWith('baseline'));

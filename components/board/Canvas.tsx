@@ -16,7 +16,9 @@ import { formatLength, formatQuantity } from '@/lib/units';
 import type { BoardController, PointerInput, SectionState } from './controller';
 import { fillStyle, fillTile, TILE_RES, ZONE_STYLES } from './fills';
 import { boxOf } from './hit';
+import type { OutlineItem } from './rigid';
 import { rigidShift } from './rigid';
+import { keepUnchanged } from './stable';
 import { useStore } from './store';
 import { gridSpacing, patternBucket, toScreen } from './view';
 
@@ -265,32 +267,34 @@ function Label({ x, y, text, align = 'left', tone = 'ink' }: { x: number; y: num
   );
 }
 
-/** The top layer: everything drawn in screen pixels. */
-function ScreenLayer() {
-  const c = useBoard();
-  const v = useStore(c.view);
-  const ui = useStore(c.ui);
-  const st = useStore(c.section);
-  const tr = useStore(c.transient);
-  const size = useStore(c.size);
+/** What the selection layer draws, as outlines in screen pixels (keys carry everything else it shows). */
+function selectionOutline(c: BoardController, v: ReturnType<BoardController['view']['get']>, ui: ReturnType<BoardController['ui']['get']>, st: SectionState): OutlineItem[] {
+  const sp = (p: readonly [number, number]) => toScreen(v, p);
+  const item = (key: string, flat: number[]): OutlineItem => ({ key, flat, pattern: '', rank: 0, locked: false });
+  const out: OutlineItem[] = [];
+  const selParts = ui.selection.parts.map((id) => st.resolved.parts.get(id)).filter((p) => !!p);
+  for (const p of selParts) {
+    for (const s of st.resolved.solids) if (s.partId === p.id) out.push(item(`so-${s.partId}-${s.piece}`, s.polygon.flatMap((q) => sp(q))));
+    out.push(item(`sb-${p.id}-${p.record.locked ? 'locked' : ''}`, [...sp([p.box.minX, p.box.maxY]), ...sp([p.box.maxX, p.box.minY])]));
+  }
+  for (const z of st.resolved.zones) if (ui.selection.zones.includes(z.zoneId)) out.push(item(`sz-${z.zoneId}`, z.polygon.flatMap((q) => sp(q))));
+  if (selParts.length === 1 && !ui.selection.zones.length) {
+    const p = selParts[0];
+    const kind = partKind(p.record.kind);
+    const text = `${formatLength(p.box.maxX - p.box.minX, ui.system)}|${formatLength(p.box.maxY - p.box.minY, ui.system)}|${p.record.name}|${kind ? kind.label(p.record as never, (m) => formatLength(m, ui.system)) : ''}`;
+    out.push(item(`dim-${text}`, [...sp([p.box.minX, p.box.maxY]), ...sp([p.box.maxX, p.box.minY])]));
+  }
+  c.handles().forEach((h, i) => out.push(item(`h${i}-${h.type}-${h.type === 'vertex' && ui.vertex === h.index ? 'on' : ''}-${h.type === 'param' ? h.handle.axis : h.type === 'zone' ? h.edge : ''}`, [...sp(h.at)])));
+  return out;
+}
+
+/** The selection's outlines, box, labels, dimensions and handles, in screen pixels. */
+function selectionNodes(c: BoardController, v: ReturnType<BoardController['view']['get']>, ui: ReturnType<BoardController['ui']['get']>, st: SectionState): ReactNode[] {
   const sp = (p: readonly [number, number]) => toScreen(v, p);
   const selParts = ui.selection.parts.map((id) => st.resolved.parts.get(id)).filter((p) => !!p);
   const selZones = st.resolved.zones.filter((z) => ui.selection.zones.includes(z.zoneId));
   const handles = c.handles();
   const out: ReactNode[] = [];
-
-  // Zone labels (name and design temperature), where the zone is large enough on screen.
-  for (const z of st.resolved.zones) {
-    if (!z.polygon.length) continue;
-    const b = boxOf(z.polygon);
-    const [x0, y0] = sp([b.minX, b.maxY]);
-    const [x1, y1] = sp([b.maxX, b.minY]);
-    if (x1 - x0 < 90 || y1 - y0 < 22) continue;
-    const cx = Math.min(Math.max(x0, 0), size.width - 100), cy = Math.min(Math.max(y0, 0), size.height - 30);
-    if (cx > x1 - 90 || cy > y1 - 22) continue;
-    out.push(<Text key={`zl-${z.zoneId}`} x={cx + 6} y={cy + 6} text={`${z.record.name || z.kind} · ${formatQuantity('temperature', z.record.design.t, ui.system)}`} fontSize={11} fontFamily="system-ui, sans-serif" fill={(ZONE_STYLES[z.kind] ?? ZONE_STYLES.fixed).edge} listening={false} />);
-  }
-
   // Selection outlines: the part's pieces, and its box dashed.
   for (const p of selParts) {
     for (const s of st.resolved.solids) if (s.partId === p.id) out.push(<Line key={`so-${s.partId}-${s.piece}`} points={s.polygon.flatMap((q) => sp(q))} closed stroke={ACCENT} strokeWidth={2} listening={false} />);
@@ -324,6 +328,62 @@ function ScreenLayer() {
       out.push(<Rect key={`h${i}`} x={x - w / 2} y={y - hh / 2} width={w} height={hh} fill="#fbfaf7" stroke={ACCENT} strokeWidth={1.5} cornerRadius={2} listening={false} />);
     }
   });
+
+  return out;
+}
+
+/**
+ * The selection layer. While a drag only translates the selection (a move), it keeps the drawing it made
+ * at the start and the compositor shifts its canvas, as the moving parts' layer does: no redraw of the
+ * outlines, labels and handles on every pointer move. It draws again when anything it shows changes
+ * other than by that translation, when the view changes, or when the shift passes a quarter of the screen.
+ */
+function SelectionLayer() {
+  const c = useBoard();
+  const v = useStore(c.view);
+  const ui = useStore(c.ui);
+  const st = useStore(c.section);
+  const size = useStore(c.size);
+  const layer = useRef<import('konva/lib/Layer').Layer | null>(null);
+  const base = useRef<{ outline: OutlineItem[]; nodes: ReactNode[] } | null>(null);
+  const outline = selectionOutline(c, v, ui, st);
+  let shift = base.current && c.isDragging() ? rigidShift(base.current.outline, outline, 1e-6) : null;
+  if (shift && (Math.abs(shift[0]) > size.width / 4 || Math.abs(shift[1]) > size.height / 4)) shift = null;
+  if (!shift || !base.current) {
+    base.current = { outline, nodes: selectionNodes(c, v, ui, st) };
+    shift = [0, 0];
+  }
+  const [sx, sy] = shift;
+  useLayoutEffect(() => {
+    const el = layer.current?.getCanvas()._canvas;
+    if (el) el.style.transform = sx || sy ? `translate(${sx}px, ${sy}px)` : '';
+  });
+  return <Layer ref={layer} name="selection" listening={false}>{base.current.nodes}</Layer>;
+}
+
+/** The top layer: everything else drawn in screen pixels (zone labels, guides, drafts, cut lines, messages). */
+function ScreenLayer() {
+  const c = useBoard();
+  const v = useStore(c.view);
+  const ui = useStore(c.ui);
+  const st = useStore(c.section);
+  const tr = useStore(c.transient);
+  const size = useStore(c.size);
+  const kept = useRef<ReactNode[] | null>(null);
+  const sp = (p: readonly [number, number]) => toScreen(v, p);
+  const out: ReactNode[] = [];
+
+  // Zone labels (name and design temperature), where the zone is large enough on screen.
+  for (const z of st.resolved.zones) {
+    if (!z.polygon.length) continue;
+    const b = boxOf(z.polygon);
+    const [x0, y0] = sp([b.minX, b.maxY]);
+    const [x1, y1] = sp([b.maxX, b.minY]);
+    if (x1 - x0 < 90 || y1 - y0 < 22) continue;
+    const cx = Math.min(Math.max(x0, 0), size.width - 100), cy = Math.min(Math.max(y0, 0), size.height - 30);
+    if (cx > x1 - 90 || cy > y1 - 22) continue;
+    out.push(<Text key={`zl-${z.zoneId}`} x={cx + 6} y={cy + 6} text={`${z.record.name || z.kind} · ${formatQuantity('temperature', z.record.design.t, ui.system)}`} fontSize={11} fontFamily="system-ui, sans-serif" fill={(ZONE_STYLES[z.kind] ?? ZONE_STYLES.fixed).edge} listening={false} />);
+  }
 
   // Snap guides.
   tr.guides.forEach((g, i) => {
@@ -368,7 +428,11 @@ function ScreenLayer() {
   }
   if (tr.refusal) out.push(<Label key="refusal" x={tr.refusal.sx + 14} y={tr.refusal.sy + 18} text={tr.refusal.text.split('\n')[0]} tone="error" />);
 
-  return <Layer listening={false}>{out}</Layer>;
+  // This layer re-renders on every move of a drag (it reads the section and the transient state); hand
+  // React the previous elements where nothing changed (cut lines, zone labels), so the canvas is not redrawn.
+  const nodes = keepUnchanged(kept.current, out);
+  kept.current = nodes;
+  return <Layer listening={false}>{nodes}</Layer>;
 }
 
 function pointerInput(e: React.PointerEvent | PointerEvent, el: HTMLElement): PointerInput {
@@ -441,6 +505,7 @@ export function BoardCanvas({ overlay, className }: { overlay?: ReactNode; class
         {overlay}
         <GridLayer />
         <ScreenLayer />
+        <SelectionLayer />
       </Stage>
     </div>
   );

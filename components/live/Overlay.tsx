@@ -4,17 +4,17 @@
  * the view change), isotherms, optional heat-flow marks, the verdict segments and the coldest point, all
  * in one Konva layer, so a new result changes one canvas; the probe label has a layer of its own.
  */
-import { useEffect, useMemo, useRef } from 'react';
+import { useEffect, useLayoutEffect, useMemo, useRef } from 'react';
 import { Circle, Group, Image as KImage, Layer, Line, Rect, Text } from 'react-konva';
 import { useBoard } from '@/components/board/Canvas';
 import { useStore, useStoreFields } from '@/components/board/store';
 import { toScreen } from '@/components/board/view';
 import { formatQuantity } from '@/lib/units';
 import type { ScreenView } from './colour';
-import { buildLut, levels, rangeOf, rasterize } from './colour';
+import { buildLut, levels, rangeOf, rasterFrame, rasterize } from './colour';
 import { flowMarks, isotherms } from './contours';
 import type { LiveSession } from './session';
-import { RASTER_ALPHA } from './session';
+import { RASTER_ALPHA, rasterScale } from './session';
 import { styleFor } from './segments';
 import type { LiveOptions } from './options';
 import { probeAt } from './probe';
@@ -37,23 +37,37 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
   const imgRef = useRef<import('konva/lib/shapes/Image').Image | null>(null);
   const range = useMemo(() => (st.results ? rangeOf(st.results.zones.filter((z) => z.touches).map((z) => z.design.t)) : null), [st.results]);
 
+  // While previews are shown (a drag), the whole layer draws at a lower resolution and the browser scales
+  // its canvas up: a quarter of the pixels for Chromium to rasterise per result, where most of a long
+  // frame went (colours, lines and marks alike; they are sharp again with the release's result).
+  const scale = rasterScale(st.mesh);
+  const layerRef = useRef<import('konva/lib/Layer').Layer | null>(null);
+  useLayoutEffect(() => {
+    const lc = layerRef.current?.getCanvas();
+    if (lc && lc.getPixelRatio() !== scale) {
+      lc.setPixelRatio(scale);
+      layerRef.current?.batchDraw();
+    }
+  });
+
   // The colours: one screen raster per result or view, kept in one canvas and drawn as one image.
   useEffect(() => {
     if (!canvas || !st.field || !range || !opt.colours) return;
-    const w = Math.max(1, Math.floor(size.width)), h = Math.max(1, Math.floor(size.height));
+    const fr = rasterFrame(v, size.width, size.height, scale);
+    const { width: w, height: h } = fr;
     if (canvas.width !== w || canvas.height !== h) { canvas.width = w; canvas.height = h; }
     const ctx = canvas.getContext('2d')!;
     const ras = st.raster;
-    if (ras && ras.width === w && ras.height === h && sameView(ras.view, v)) {
+    if (ras && ras.width === w && ras.height === h && sameView(ras.view, fr.view)) {
       // Painted by the worker for this very view: copy it in.
       ctx.putImageData(new ImageData(ras.pixels as Uint8ClampedArray<ArrayBuffer>, w, h), 0, 0);
     } else {
       if (!pixels.current || pixels.current.width !== w || pixels.current.height !== h) pixels.current = ctx.createImageData(w, h);
-      rasterize(st.field, range, LUT, v, w, h, pixels.current.data, RASTER_ALPHA);
+      rasterize(st.field, range, LUT, fr.view, w, h, pixels.current.data, RASTER_ALPHA);
       ctx.putImageData(pixels.current, 0, 0);
     }
     imgRef.current?.getLayer()?.batchDraw();
-  }, [canvas, st.field, st.raster, range, v, size, opt.colours]);
+  }, [canvas, st.field, st.raster, range, v, size, opt.colours, scale]);
 
   // The worker traces the isotherms with each solve; only a change of interval is traced here, once.
   const lines = useMemo(() => {
@@ -79,10 +93,12 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
         {r.surfaces.map((s) => {
           const sty = styleFor(s.state);
           const pts = [s.from[0], s.from[1], s.to[0], s.to[1]];
+          // The stroke is not scaled (Konva strokes it in screen pixels), so the dash is in pixels too:
+          // dashes of 1/k px cost tens of ms to rasterise per result and drew the line as solid.
           return (
             <Group key={s.id} listening={false}>
               <Line points={pts} stroke="#ffffff" strokeWidth={sty.width + 3} strokeScaleEnabled={false} opacity={0.85} perfectDrawEnabled={false} />
-              <Line points={pts} stroke={sty.stroke} strokeWidth={sty.width} dash={sty.dash.length ? sty.dash.map((d) => d * px) : undefined} strokeScaleEnabled={false} lineCap={s.state === 'condensation' ? 'round' : 'butt'} perfectDrawEnabled={false} />
+              <Line points={pts} stroke={sty.stroke} strokeWidth={sty.width} dash={sty.dash.length ? sty.dash : undefined} strokeScaleEnabled={false} lineCap={s.state === 'condensation' ? 'round' : 'butt'} perfectDrawEnabled={false} />
             </Group>
           );
         })}
@@ -132,7 +148,7 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
   // One layer (one canvas for the compositor to take) for colours, lines and marks.
   return (
     <>
-      <Layer listening={false}>
+      <Layer ref={layerRef} name="live" listening={false}>
         {opt.colours && <KImage ref={imgRef} image={canvas ?? undefined} x={0} y={0} width={size.width} height={size.height} opacity={dim ? 0.55 : 1} listening={false} />}
         <Group x={v.ox} y={v.oy} scaleX={v.k} scaleY={-v.k} opacity={dim ? 0.6 : 1} listening={false}>
           {world}

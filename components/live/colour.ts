@@ -88,3 +88,21 @@ export function levels(r: Range, step: number): number[] {
   for (let v = Math.ceil(r.lo / step) * step; v <= r.hi + 1e-9; v += step) if (v > r.lo && v < r.hi) out.push(Math.round(v * 1e6) / 1e6);
   return out;
 }
+
+/** Resolution of the colour layer while a preview is shown (a drag): half the screen's pixels each way. */
+export const PREVIEW_RASTER_SCALE = 0.5;
+
+export interface RasterFrame { view: ScreenView; width: number; height: number }
+
+/**
+ * The raster for a screen of width x height px drawn at `scale` of its resolution: its size in whole
+ * pixels and the view that maps world points onto it (pixel i covers screen pixels i/scale to
+ * (i + 1)/scale, so a pixel's centre falls on the centre of the block of screen pixels it stands for).
+ */
+export function rasterFrame(view: ScreenView, width: number, height: number, scale = 1): RasterFrame {
+  return {
+    view: scale === 1 ? view : { k: view.k * scale, ox: view.ox * scale, oy: view.oy * scale },
+    width: Math.max(1, Math.floor(width * scale)),
+    height: Math.max(1, Math.floor(height * scale)),
+  };
+}

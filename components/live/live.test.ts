@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildLut, fieldAt, levels, rangeOf, rasterize } from './colour';
+import { buildLut, fieldAt, levels, rangeOf, rasterFrame, rasterize } from './colour';
 import type { GridField } from './colour';
 import { gridToWorld, isotherms } from './contours';
 import { diffResults, signed } from './diff';
@@ -40,6 +40,32 @@ describe('colours', () => {
     expect(px(105, 100)[3]).toBe(0);
     expect(fieldAt(f, 0.45, 1.5)).toBeCloseTo(10 * cx(2));
     expect(Number.isNaN(fieldAt(f, 0.2, 0.75))).toBe(true);
+  });
+  it('a half-resolution raster paints each pixel with the cell under the centre of the 2 x 2 screen pixels it stands for', () => {
+    const f = linear(5);
+    const lut = buildLut();
+    const view = { k: 100, ox: 3, oy: 205 };
+    const full = rasterFrame(view, 111, 201);
+    expect(full).toEqual({ view, width: 111, height: 201 });
+    const half = rasterFrame(view, 111, 201, 0.5);
+    expect(half.width).toBe(55);
+    expect(half.height).toBe(100);
+    const out = new Uint8ClampedArray(half.width * half.height * 4);
+    rasterize(f, { lo: 0, hi: 10 }, lut, half.view, half.width, half.height, out);
+    let checked = 0;
+    for (let j = 0; j < half.height; j += 7) for (let i = 0; i < half.width; i += 5) {
+      // The centre of screen pixels 2i..2i+1, 2j..2j+1 is the screen point (2i + 1, 2j + 1).
+      const x = (2 * i + 1 - view.ox) / view.k, y = (view.oy - (2 * j + 1)) / view.k;
+      const t = fieldAt(f, x, y);
+      const p = (j * half.width + i) * 4;
+      if (Number.isNaN(t)) expect(out[p + 3]).toBe(0);
+      else {
+        const q = Math.round((t / 10) * 255);
+        expect([out[p], out[p + 1], out[p + 2], out[p + 3]]).toEqual([lut[q * 3], lut[q * 3 + 1], lut[q * 3 + 2], 255]);
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThan(50);
   });
   it('levels at an interval inside the range', () => {
     expect(levels({ lo: -18, hi: 20 }, 5)).toEqual([-15, -10, -5, 0, 5, 10, 15]);
@@ -93,31 +119,29 @@ describe('compare', () => {
 });
 
 describe('scheduler', () => {
-  it('posts every preview at once; a running preview finishes and only the newest waits', () => {
+  it('posts every request at once and keeps it until the worker answers; answers are matched by id', () => {
     const s = new Scheduler<string>();
     expect(s.request('a', 'preview', 1)).toEqual([{ type: 'send', req: { id: 1, snapshot: 'a', mesh: 'preview', version: 1 } }]);
     expect(s.request('b', 'preview', 2)).toEqual([{ type: 'send', req: { id: 2, snapshot: 'b', mesh: 'preview', version: 2 } }]);
-    expect(s.request('c', 'preview', 3)).toEqual([{ type: 'send', req: { id: 3, snapshot: 'c', mesh: 'preview', version: 3 } }]);
-    expect(s.waiting?.id).toBe(3);
-    // The worker starts the waiting one itself: nothing more to send.
-    expect(s.done(1)).toEqual([]);
-    expect(s.running?.id).toBe(3);
-    expect(s.done(2)).toEqual([]); // dropped in the worker: no change here
-    expect(s.running?.id).toBe(3);
-    expect(s.done(3)).toEqual([]);
-    expect(s.running).toBeNull();
+    expect(s.request('c', 'default', 2)).toEqual([{ type: 'send', req: { id: 3, snapshot: 'c', mesh: 'default', version: 2 } }]);
+    expect(s.get(2)?.snapshot).toBe('b');
+    // The worker answered 2 (say it had started it before it saw 3): its own request, not the newest.
+    expect(s.done(2)).toEqual({ id: 2, snapshot: 'b', mesh: 'preview', version: 2 });
+    expect(s.done(2)).toBeNull(); // answered once
+    expect(s.busy).toBe(true);
+    expect(s.done(1)?.version).toBe(1);
+    expect(s.done(3)?.mesh).toBe('default');
+    expect(s.busy).toBe(false);
+    expect(Scheduler.fresher(2, 3)).toBe(false);
+    expect(Scheduler.fresher(4, 3)).toBe(true);
   });
-  it('a release cancels the running solve and supersedes the waiting one', () => {
+  it('a stop cancels every unanswered request', () => {
     const s = new Scheduler<string>();
     s.request('a', 'preview', 1);
     s.request('b', 'preview', 2);
-    const e = s.request('c', 'default', 2);
-    expect(e).toEqual([{ type: 'cancel', id: 1 }, { type: 'send', req: { id: 3, snapshot: 'c', mesh: 'default', version: 2 } }]);
-    // The cancelled one reporting back changes nothing.
-    expect(s.done(1)).toEqual([]);
-    expect(s.running?.id).toBe(3);
-    expect(s.stop()).toEqual([{ type: 'cancel', id: 3 }]);
-    expect(Scheduler.fresher(2, 3)).toBe(false);
+    s.done(1);
+    s.request('c', 'default', 3);
+    expect(s.stop()).toEqual([{ type: 'cancel', id: 2 }, { type: 'cancel', id: 3 }]);
   });
 });
 
@@ -144,36 +168,65 @@ describe('solve queue in the worker', () => {
     expect(q.running).toBeNull();
     expect(q.cancel(9)).toEqual([]);
   });
-  it('page and worker agree on what runs and what waits, over random requests, results and stops', () => {
+  it('with messages in flight both ways, every request is answered once and every answer finds its own request', () => {
     let seed = 7;
     const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
-    for (let run = 0; run < 200; run++) {
+    type Job = { id: number; mesh: 'preview' | 'default' | 'fine'; snapshot: string };
+    type Answer = { type: 'result' | 'cancelled'; id: number; snapshot?: string };
+    for (let run = 0; run < 300; run++) {
       const page = new Scheduler<string>();
-      const worker = new SolveQueue<{ id: number; mesh: 'preview' | 'default' | 'fine' }>();
+      const worker = new SolveQueue<Job>();
+      const toWorker: ({ type: 'solve'; job: Job } | { type: 'cancel'; id: number })[] = [];
+      const toPage: Answer[] = [];
       const started: number[] = [];
-      const toWorker = (effects: ReturnType<typeof page.request>) => {
-        for (const e of effects) {
-          const acts = e.type === 'cancel' ? worker.cancel(e.id) : worker.solve({ id: e.req.id, mesh: e.req.mesh });
-          for (const a of acts) {
-            if (a.type === 'start') started.push(a.job.id);
-            if (a.type === 'drop') page.done(a.id); // the worker reports it cancelled
-            if (a.type === 'abort') finish(a.id);
-          }
+      const answered = new Map<number, number>();
+      let posted = 0;
+      const work = (acts: ReturnType<typeof worker.solve>) => {
+        for (const a of acts) {
+          if (a.type === 'start') started.push(a.job.id);
+          if (a.type === 'drop') toPage.push({ type: 'cancelled', id: a.id });
+          if (a.type === 'abort') { toPage.push({ type: 'cancelled', id: a.id }); work(worker.finished(a.id)); }
         }
       };
-      const finish = (id: number) => {
-        for (const a of worker.finished(id)) if (a.type === 'start') started.push(a.job.id);
-        page.done(id);
+      const send = (effects: ReturnType<typeof page.request>) => {
+        for (const e of effects) toWorker.push(e.type === 'cancel' ? e : { type: 'solve', job: { id: e.req.id, mesh: e.req.mesh, snapshot: e.req.snapshot } });
       };
-      for (let step = 0; step < 40; step++) {
+      const deliverToWorker = () => {
+        const m = toWorker.shift();
+        if (m) work(m.type === 'cancel' ? worker.cancel(m.id) : worker.solve(m.job));
+      };
+      const finish = () => {
+        const j = worker.running;
+        if (!j) return;
+        toPage.push({ type: 'result', id: j.id, snapshot: j.snapshot });
+        work(worker.finished(j.id));
+      };
+      const deliverToPage = () => {
+        const m = toPage.shift();
+        if (!m) return;
+        answered.set(m.id, (answered.get(m.id) ?? 0) + 1);
+        const req = page.done(m.id);
+        // The answer belongs to a request the page posted and still held, and a result is of that very drawing.
+        expect(req?.id).toBe(m.id);
+        if (m.type === 'result') expect(req?.snapshot).toBe(m.snapshot);
+      };
+      for (let step = 0; step < 60; step++) {
         const x = rnd();
-        if (x < 0.55) toWorker(page.request('s', rnd() < 0.8 ? 'preview' : 'default', step));
-        else if (x < 0.9) { if (worker.running) finish(worker.running.id); }
-        else toWorker(page.stop());
-        expect(page.running?.id ?? null).toBe(worker.running?.id ?? null);
-        expect(page.waiting?.id ?? null).toBe(worker.pending?.id ?? null);
+        if (x < 0.35) { posted++; send(page.request(`s${posted}`, rnd() < 0.8 ? 'preview' : 'default', step)); }
+        else if (x < 0.55) deliverToWorker();
+        else if (x < 0.7) finish();
+        else if (x < 0.95) deliverToPage();
+        else send(page.stop());
       }
-      // No job starts twice.
+      // Let everything arrive and every solve end.
+      for (let k = 0; k < 1000 && (toWorker.length || toPage.length || worker.running); k++) {
+        deliverToWorker();
+        finish();
+        deliverToPage();
+      }
+      expect(answered.size).toBe(posted);
+      expect([...answered.values()].every((n) => n === 1)).toBe(true);
+      expect(page.busy).toBe(false);
       expect(new Set(started).size).toBe(started.length);
     }
   });

@@ -3,10 +3,15 @@
  * cancels whatever runs; while dragging, a running preview solve is left to finish and only the newest
  * preview request waits (each older waiting request is dropped), so results keep arriving at solve rate.
  *
- * The policy lives twice, in step: `Scheduler` on the page (what is running, for the status line and to
- * match results to drawings) and `SolveQueue` in the worker. Every request is posted to the worker at
- * once, and the worker starts the waiting preview itself when the running one ends, so the next solve
- * never waits for the page's main thread, which is busiest exactly while the user drags.
+ * The policy lives in the worker (`SolveQueue`): every request is posted to the worker at once, and the
+ * worker starts the waiting preview itself when the running one ends, so the next solve never waits for
+ * the page's main thread, which is busiest exactly while the user drags.
+ *
+ * The page (`Scheduler`) does not mirror the worker's queue: messages take time both ways (the worker
+ * reads the page's requests only between the slices of a solve, and a solve's first and last slices run
+ * for tens of milliseconds), so a mirror guesses wrong about which request the worker started. It keeps
+ * every request it posted until the worker answers it (the worker answers each exactly once, with a
+ * result, an error or 'cancelled') and looks results up by id.
  */
 export type Mesh = 'preview' | 'default' | 'fine';
 
@@ -16,43 +21,36 @@ export type Effect<S> = { type: 'send'; req: Request<S> } | { type: 'cancel'; id
 
 export class Scheduler<S> {
   private nextId = 1;
-  running: Request<S> | null = null;
-  waiting: Request<S> | null = null;
+  /** Requests posted and not yet answered, oldest first (a Map keeps insertion order). */
+  private readonly open = new Map<number, Request<S>>();
 
-  /** A new drawn state. Returns what to tell the worker. */
+  /** A new drawn state: post it. The worker decides whether it waits, supersedes or aborts (SolveQueue.solve). */
   request(snapshot: S, mesh: Mesh, version: number): Effect<S>[] {
     const req: Request<S> = { id: this.nextId++, snapshot, mesh, version };
-    if (!this.running) {
-      this.running = req;
-      this.waiting = null;
-      return [{ type: 'send', req }];
-    }
-    if (mesh === 'preview' && this.running.mesh === 'preview') {
-      // The worker keeps it as its waiting preview (dropping the one it held) and starts it itself.
-      this.waiting = req;
-      return [{ type: 'send', req }];
-    }
-    const out: Effect<S>[] = [{ type: 'cancel', id: this.running.id }, { type: 'send', req }];
-    this.running = req;
-    this.waiting = null;
-    return out;
+    this.open.set(req.id, req);
+    return [{ type: 'send', req }];
   }
 
-  /** The worker finished (result, error or cancelled) request `id`; it starts the waiting one on its own. */
-  done(id: number): Effect<S>[] {
-    if (!this.running || this.running.id !== id) return [];
-    this.running = this.waiting;
-    this.waiting = null;
-    return [];
+  /** The request `id` was posted and is not yet answered (for progress messages and results). */
+  get(id: number): Request<S> | null {
+    return this.open.get(id) ?? null;
   }
 
-  /** The user stops the running solve (the worker drops the waiting one with it). */
+  /** The worker answered request `id` (result, error or cancelled): the request it belonged to, or null. */
+  done(id: number): Request<S> | null {
+    const req = this.open.get(id) ?? null;
+    this.open.delete(id);
+    return req;
+  }
+
+  /** Is any request still unanswered (the worker is solving or about to)? */
+  get busy(): boolean {
+    return this.open.size > 0;
+  }
+
+  /** The user stops solving: cancel every unanswered request (the worker aborts the running one and drops the waiting one). */
   stop(): Effect<S>[] {
-    if (!this.running) return [];
-    const id = this.running.id;
-    this.running = null;
-    this.waiting = null;
-    return [{ type: 'cancel', id }];
+    return [...this.open.keys()].map((id) => ({ type: 'cancel' as const, id }));
   }
 
   /** Should a result for `id` be shown? Only one newer than what is shown. */

@@ -9,9 +9,10 @@ import { createStore } from '@/components/board/store';
 import type { SectionSnapshot } from '@/lib/section/schema';
 import type { SectionResults } from '@/lib/thermal/types';
 import type { GridField } from './colour';
+import { PREVIEW_RASTER_SCALE, rasterFrame } from './colour';
 import type { Isotherm } from './contours';
 import type { LiveOptions } from './options';
-import type { FromWorker, Raster, ToWorker } from './protocol';
+import type { FromWorker, Raster, ToWorker, WorkParts } from './protocol';
 import type { Effect, Mesh } from './scheduler';
 import { Scheduler } from './scheduler';
 
@@ -37,8 +38,23 @@ export interface LiveState {
   raster: Raster | null;
 }
 
+/** Resolution of the colour raster for results of a mesh level: lower for previews (see PREVIEW_RASTER_SCALE). */
+export const rasterScale = (mesh: Mesh | null): number => (mesh === 'preview' ? PREVIEW_RASTER_SCALE : 1);
+
 /** Opacity of the colour raster over the parts, 0 to 255. */
 export const RASTER_ALPHA = 235;
+
+/**
+ * The page's record of its traffic with the worker, for the benchmark (window.__dewline.liveLog): every
+ * request posted, every result and cancel received, on the page's clock (timeOrigin + now, ms). Bounded.
+ */
+export interface DeliveryLog {
+  posts: { id: number; mesh: Mesh; at: number }[];
+  results: { id: number; mesh: Mesh | null; sentAt: number; startedAt: number; postedAt: number; handledAt: number; ms: number; parts: WorkParts | null; rasterBytes: number; shown: boolean }[];
+  cancelled: { id: number; at: number }[];
+}
+const LOG_MAX = 4000;
+const pushBounded = <T,>(a: T[], x: T) => { a.push(x); if (a.length > LOG_MAX) a.splice(0, a.length - LOG_MAX); };
 
 export interface Baseline { results: SectionResults; snapshot: SectionSnapshot }
 
@@ -49,10 +65,11 @@ export class LiveSession {
   private worker: Worker | null = null;
   private sched = new Scheduler<SectionSnapshot>();
   private shownId = 0;
-  private raf = 0;
+  private queued = false;
   private lastSent = { version: -1, mesh: '' as string };
   private snapshots = new Map<number, SectionSnapshot>();
   private off: (() => void)[] = [];
+  readonly log: DeliveryLog = { posts: [], results: [], cancelled: [] };
 
   /** `options` (optional): the viewer's isotherm interval is traced in the worker with each solve. */
   constructor(private readonly options: LiveOptions | null = null) {
@@ -75,24 +92,28 @@ export class LiveSession {
     this.worker?.terminate();
     this.worker = null;
     this.controller = null;
-    cancelAnimationFrame(this.raf);
-    this.raf = 0;
   }
 
   private patch(p: Partial<LiveState>) {
     this.state.set((s) => ({ ...s, ...p }));
   }
 
-  /** Coalesce changes to one request per animation frame. */
+  /**
+   * Coalesce changes to one request per task: the request is posted in a microtask after the change,
+   * not in the next animation frame. A drag applies its move inside the board's animation-frame callback,
+   * so waiting for the next frame held every request back by a frame, and by the whole of that frame's
+   * rendering when it was a long one; the worker, done with its preview, sat idle meanwhile.
+   */
   private schedule() {
     const c = this.controller;
     if (!c) return;
     // Patch only when staleness flips: a drag changes the drawing on every frame, and the readout need not re-render for it.
     const drawn = c.section.get().version, stale = this.state.get().version !== drawn;
     if (stale !== this.state.get().stale) this.patch({ drawn, stale });
-    if (this.raf) return;
-    this.raf = requestAnimationFrame(() => {
-      this.raf = 0;
+    if (this.queued) return;
+    this.queued = true;
+    queueMicrotask(() => {
+      this.queued = false;
       this.sendCurrent();
     });
   }
@@ -127,12 +148,15 @@ export class LiveSession {
         const o = this.options?.get();
         const c = this.controller;
         const size = c?.size.get();
-        const raster = c && size && (!o || o.colours) ? { view: c.view.get(), width: Math.max(1, Math.floor(size.width)), height: Math.max(1, Math.floor(size.height)), alpha: RASTER_ALPHA } : null;
-        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null, sentAt: performance.timeOrigin + performance.now(), raster });
+        // Previews (a drag) are painted at a lower resolution: a quarter of the pixels to paint, send and draw.
+        const raster = c && size && (!o || o.colours) ? { ...rasterFrame(c.view.get(), size.width, size.height, rasterScale(e.req.mesh)), alpha: RASTER_ALPHA } : null;
+        const sentAt = performance.timeOrigin + performance.now();
+        this.post({ type: 'solve', id: e.req.id, snapshot: e.req.snapshot, mesh: e.req.mesh, isoStep: o && o.isotherms ? o.step : null, sentAt, raster });
+        pushBounded(this.log.posts, { id: e.req.id, mesh: e.req.mesh, at: sentAt });
         this.patch({ busy: { mesh: e.req.mesh, elapsedMs: 0 } });
       }
     }
-    if (!this.sched.running) this.patch({ busy: null });
+    if (!this.sched.busy) this.patch({ busy: null });
   }
 
   private post(m: ToWorker) {
@@ -141,10 +165,15 @@ export class LiveSession {
 
   private receive(m: FromWorker) {
     if (m.type === 'progress') {
-      if (this.sched.running?.id === m.id) this.patch({ busy: { mesh: this.sched.running.mesh, elapsedMs: m.elapsedMs } });
+      const r = this.sched.get(m.id);
+      if (r && !this.state.get().stopped) this.patch({ busy: { mesh: r.mesh, elapsedMs: m.elapsedMs } });
       return;
     }
-    const req = this.sched.running && this.sched.running.id === m.id ? this.sched.running : null;
+    // Every request is answered once; look it up by id (the worker may have started an older one than the page last posted).
+    const req = this.sched.done(m.id);
+    const handledAt = performance.timeOrigin + performance.now();
+    if (m.type === 'result') pushBounded(this.log.results, { id: m.id, mesh: req?.mesh ?? null, sentAt: m.sentAt ?? NaN, startedAt: m.startedAt ?? NaN, postedAt: m.postedAt ?? NaN, handledAt, ms: m.ms, parts: m.parts ?? null, rasterBytes: m.raster?.pixels.byteLength ?? 0, shown: Scheduler.fresher(m.id, this.shownId) });
+    else if (m.type === 'cancelled') pushBounded(this.log.cancelled, { id: m.id, at: handledAt });
     if (m.type === 'result' && Scheduler.fresher(m.id, this.shownId)) {
       this.shownId = m.id;
       const version = req?.version ?? this.state.get().version;
@@ -157,9 +186,9 @@ export class LiveSession {
       const lag = { toWorkerMs: m.startedAt !== undefined && m.sentAt !== undefined ? m.startedAt - m.sentAt : NaN, backMs: m.postedAt !== undefined ? now - m.postedAt : NaN };
       expose(this, m.results, req?.mesh ?? null, version, m.ms, lag);
     } else if (m.type === 'error' && req) this.patch({ error: m.message });
-    this.apply(this.sched.done(m.id));
+    if (!this.sched.busy) this.patch({ busy: null });
     // A preview that finished after the release, or anything missed: make sure the drawing gets its default solve.
-    if (!this.sched.running && this.controller && !this.controller.isDragging() && this.lastSent.mesh !== 'default') this.sendCurrent();
+    if (!this.sched.busy && this.controller && !this.controller.isDragging() && this.lastSent.mesh !== 'default') this.sendCurrent();
   }
 
   pinBaseline() {
@@ -174,5 +203,6 @@ function expose(s: LiveSession, results: SectionResults, mesh: Mesh | null, vers
   const w = window as unknown as { __dewline?: Record<string, unknown> };
   w.__dewline ??= {};
   w.__dewline.results = results;
+  w.__dewline.liveLog = s.log;
   w.__dewline.live = { mesh, version, refreshes: s.state.get().refreshes, stale: s.state.get().stale, at: performance.now(), ms, cells: results.mesh.cells, ...lag, snapshot: s.controller?.snapshot() };
 }

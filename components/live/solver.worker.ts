@@ -53,6 +53,7 @@ async function run(m: SolveMessage) {
     const warm = mesh === 'preview' ? last.preview ?? last.default ?? null : null;
     const results = await runSliced(solveSectionSteps(snapshot, { mesh, signal: token, warmStart: warm }), token, pause);
     last[mesh] = results;
+    const t1 = performance.now();
     const t = new Float64Array(results.field.t.length);
     for (let k = 0; k < t.length; k++) { const v = results.field.t[k]; t[k] = v === null ? NaN : v; }
     const lean: SectionResults = { ...results, field: { xs: results.field.xs, ys: results.field.ys, t: [] } };
@@ -62,6 +63,7 @@ async function run(m: SolveMessage) {
       const range = rangeOf(results.zones.filter((z) => z.touches).map((z) => z.design.t));
       iso = { step: isoStep, lines: isotherms({ xs: results.field.xs, ys: results.field.ys, nx: results.field.xs.length - 1, ny: results.field.ys.length - 1, t }, levels(range, isoStep)) };
     }
+    const t2 = performance.now();
     // The colours for the view the page had when it asked: the page only copies the pixels in.
     let raster: Raster | null = null;
     if (m.raster && m.raster.width > 0 && m.raster.height > 0) {
@@ -71,10 +73,11 @@ async function run(m: SolveMessage) {
       rasterize({ xs: results.field.xs, ys: results.field.ys, nx: results.field.xs.length - 1, ny: results.field.ys.length - 1, t }, range, LUT, view, width, height, pixels, alpha);
       raster = { view, width, height, alpha, pixels };
     }
+    const t3 = performance.now();
     // The field and the pixels go over as transferred buffers, not copied.
     const transfer: Transferable[] = [t.buffer];
     if (raster) transfer.push(raster.pixels.buffer);
-    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso, raster, sentAt: m.sentAt, startedAt, postedAt: clock() }, transfer);
+    post({ type: 'result', id, results: lean, field: t, ms: performance.now() - t0, iso, raster, sentAt: m.sentAt, startedAt, postedAt: clock(), parts: { solveMs: t1 - t0, isoMs: t2 - t1, rasterMs: t3 - t2 } }, transfer);
   } catch (err) {
     const e = err as Error;
     if (e?.name === 'AbortError') post({ type: 'cancelled', id });
@@ -82,7 +85,11 @@ async function run(m: SolveMessage) {
   } finally {
     clearInterval(timer);
     tokens.delete(id);
-    // The waiting preview starts here at once, without a round trip through the page.
+    // The waiting preview starts here, without a round trip through the page. First one trip through the
+    // event loop: the solve's last slice (the results) runs for tens of milliseconds without a pause, and
+    // the page's newer requests posted meanwhile are read only now; without the trip the worker started
+    // the request it held from before that slice, a drawing already several moves old.
+    await pause();
     act(queue.finished(id));
   }
 }

@@ -239,3 +239,49 @@ test('while a part is dragged fresh results keep arriving; after release the rea
   await page.screenshot({ path: file });
   await info.attach('after-drag', { path: file, contentType: 'image/png' });
 });
+
+type Konvaish = { Konva: { stages: { getLayers(): { name(): string; getCanvas(): { _canvas: HTMLCanvasElement; getPixelRatio(): number } }[]; find(sel: string): { strokeScaleEnabled(): boolean; dash(): number[] | undefined }[] }[] } };
+type Logged = { __dewline: { liveLog: { posts: { id: number; mesh: string; at: number }[]; results: { id: number; mesh: string | null; postedAt: number }[] } } };
+
+test('during a drag every result is matched to its own request, the selection is shifted and the live layer drawn at half resolution; after release all is redrawn in place', async ({ page }) => {
+  await page.goto('/section?template=basement-inside-framed');
+  await settled(page);
+  // Dashes of unscaled strokes are in screen pixels (they were 1/k px once: solid-looking and slow to draw).
+  const dashes = await page.evaluate(() => (window as unknown as Konvaish).Konva.stages[0].find('Line').filter((l) => l.strokeScaleEnabled() === false && l.dash()?.length).map((l) => Math.min(...l.dash()!)));
+  expect(dashes.length).toBeGreaterThan(0);
+  expect(Math.min(...dashes)).toBeGreaterThanOrEqual(1);
+  const layers = () => page.evaluate(() => {
+    const ls = (window as unknown as Konvaish).Konva.stages[0].getLayers();
+    const by = (n: string) => ls.find((l) => l.name() === n)!.getCanvas();
+    return { shift: by('selection')._canvas.style.transform, ratio: by('live').getPixelRatio(), mesh: (window as unknown as Live).__dewline.live.mesh };
+  });
+  expect(await layers()).toEqual({ shift: '', ratio: 1, mesh: 'default' });
+  const t0 = await page.evaluate(() => performance.timeOrigin + performance.now());
+  const fb = (await page.evaluate(() => (window as unknown as Live).__dewline.partBox('footing')))!;
+  const start = await toClient(page, fb.minX + 0.15, (fb.minY + fb.maxY) / 2);
+  await page.mouse.move(start.x, start.y);
+  await page.keyboard.down('Alt'); // no snapping: every move moves the footing by the pointer's own distance
+  await page.mouse.down();
+  for (let i = 1; i <= 25; i++) {
+    await page.mouse.move(start.x + 2 * i, start.y);
+    await page.waitForTimeout(60);
+  }
+  await page.waitForFunction(() => (window as unknown as Live).__dewline.live.mesh === 'preview', null, { timeout: 120_000 });
+  await page.waitForTimeout(300);
+  const during = await layers();
+  const m = /^translate\(([-\d.]+)px, ([-\d.]+)px\)$/.exec(during.shift);
+  expect(m, `selection layer transform: '${during.shift}'`).not.toBeNull();
+  expect(Number(m![1])).toBeCloseTo(50, 0);
+  expect(Math.abs(Number(m![2]))).toBeLessThan(0.5);
+  expect(during.ratio).toBe(0.5);
+  await page.mouse.up();
+  await page.keyboard.up('Alt');
+  await settled(page);
+  expect(await layers()).toEqual({ shift: '', ratio: 1, mesh: 'default' });
+  // Every result the worker sent back since the drag began belongs to the request of that id, with its mesh.
+  const log = await page.evaluate(() => (window as unknown as Logged).__dewline.liveLog);
+  const posted = new Map(log.posts.filter((p) => p.at >= t0).map((p) => [p.id, p.mesh]));
+  const results = log.results.filter((r) => posted.has(r.id));
+  expect(results.filter((r) => r.mesh === 'preview').length).toBeGreaterThanOrEqual(2);
+  for (const r of results) expect(r.mesh).toBe(posted.get(r.id));
+});
