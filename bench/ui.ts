@@ -15,6 +15,7 @@
  * file), unless DEWLINE_URL names a running one. Options: --drag-ms 3000, --only NAME, --json FILE,
  * --profile (main-thread functions by self time), --trace FILE (a Chromium trace of the drag, summarised),
  * --snap (drag with snapping on; by default Alt is held so every move changes the drawing).
+ * --layers (canvas redraws per second and animation-frame time during the drag).
  */
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
@@ -41,6 +42,8 @@ const TRACE = arg('--trace', '');
 const SNAP = process.argv.includes('--snap');
 /** --log FILE: also write the page's raw delivery log (requests, results, cancels) of the drag to FILE (one case). */
 const LOG = arg('--log', '');
+/** --layers: also print, per canvas of the board, how often it was cleared (one Konva layer draw each) during the drag, and the time in animation-frame callbacks. */
+const LAYERS = process.argv.includes('--layers');
 const TARGET_RPS = 10;
 const TARGET_TASK_MS = 50;
 
@@ -207,6 +210,56 @@ async function waitSettled(page: Page) {
   }, null, { timeout: 600_000, polling: 100 });
 }
 
+/**
+ * Before the page loads (--layers): count every clearRect per canvas (a Konva layer clears its canvas
+ * once per draw) and time every animation-frame callback, while window.__layers.on is true.
+ */
+const LAYER_PROBE = `(() => {
+  const L = (window.__layers = { on: false, ids: new WeakMap(), n: 0, clears: {}, size: {}, rafMs: [], names: {}, times: {}, konva: null });
+  const clear = CanvasRenderingContext2D.prototype.clearRect;
+  CanvasRenderingContext2D.prototype.clearRect = function (...a) {
+    if (L.on) {
+      const c = this.canvas;
+      if (!L.ids.has(c)) L.ids.set(c, L.n++);
+      const id = L.ids.get(c);
+      L.clears[id] = (L.clears[id] || 0) + 1;
+      (L.times[id] = L.times[id] || []).push(performance.now());
+      L.size[id] = c.width + 'x' + c.height;
+      L.names[id] = (c.parentElement && [...c.parentElement.children].indexOf(c)) + '';
+    }
+    return clear.apply(this, a);
+  };
+  L.loaf = [];
+  try {
+    new PerformanceObserver((list) => {
+      if (!L.on) return;
+      for (const e of list.getEntries()) {
+        const end = e.startTime + e.duration;
+        L.loaf.push({ ms: e.duration, blocking: e.blockingDuration, render: e.renderStart ? end - e.renderStart : 0, layout: e.styleAndLayoutStart ? end - e.styleAndLayoutStart : 0,
+          scripts: e.scripts.map((x) => ({ who: x.invoker + ' ' + (x.sourceFunctionName || '') + ' ' + (x.sourceURL || '').split('/').pop() + ':' + x.sourceCharPosition, ms: x.duration, forced: x.forcedStyleAndLayoutDuration })) });
+      }
+    }).observe({ type: 'long-animation-frame', buffered: false });
+  } catch { /* no long-animation-frame entries in this browser */ }
+  const raf = window.requestAnimationFrame.bind(window);
+  window.requestAnimationFrame = (cb) => raf((t) => { const t0 = performance.now(); try { cb(t); } finally { if (L.on) L.rafMs.push(performance.now() - t0); } });
+})()`;
+
+interface Loaf { ms: number; blocking: number; render: number; layout: number; scripts: { who: string; ms: number; forced: number }[] }
+interface LayerCounts { clears: Record<string, number>; size: Record<string, string>; names: Record<string, string>; rafMs: number[]; loaf: Loaf[]; times: Record<string, number[]> }
+
+function printLayers(name: string, l: LayerCounts, seconds: number, t0: number) {
+  console.log(`${name}: canvases cleared during the drag (per second; canvas position in the stage, size):`);
+  for (const id of Object.keys(l.clears))
+    if (l.size[id] !== '0x0') console.log(`  #${l.names[id]} ${l.size[id]}: ${(l.clears[id] / seconds).toFixed(1)}/s${l.clears[id] <= 5 ? ` (at ${l.times[id].map((t) => (t - t0).toFixed(0)).join(', ')} ms)` : ''}`);
+  const r = [...l.rafMs].sort((a, b) => a - b);
+  const q = (p: number) => (r.length ? r[Math.min(r.length - 1, Math.floor(p * (r.length - 1) + 0.5))].toFixed(1) : 'n/a');
+  console.log(`  animation-frame callbacks: ${r.length}, total ${r.reduce((a, b) => a + b, 0).toFixed(0)} ms, p50 ${q(0.5)} / p95 ${q(0.95)} / max ${q(1)} ms`);
+  // Long animation frames (Chromium's long-animation-frame entries): a frame's scripts, then its rendering (style, layout, paint).
+  const long = l.loaf.filter((f) => f.ms > 50).sort((a, b) => b.ms - a.ms).slice(0, 8);
+  console.log(`  long animation frames (over 50 ms): ${l.loaf.filter((f) => f.ms > 50).length}; the longest, with rendering (of it style and layout) and scripts over 2 ms:`);
+  for (const f of long) console.log(`    ${f.ms.toFixed(0)} ms: rendering ${f.render.toFixed(0)} (${f.layout.toFixed(0)}); ${f.scripts.filter((x) => x.ms > 2).map((x) => `${x.who} ${x.ms.toFixed(0)}${x.forced > 1 ? ` (forced layout ${x.forced.toFixed(0)})` : ''}`).join('; ') || 'no script over 2 ms'}`);
+}
+
 /** `baseline`: a blank board (no parts, no solves): the same drag over empty space, so the figures show what the machine's load alone does. */
 async function measure(page: Page, name: string, baseline = false): Promise<Figures> {
   if (baseline) await page.waitForFunction(() => Boolean((window as unknown as { __dewline?: { controller?: unknown } }).__dewline?.controller), null, { timeout: 120_000 });
@@ -235,6 +288,7 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
   // when the footing reaches the next grid step, about twice a second, which caps the refreshes instead
   // of the board). --snap drags as the earlier tables did.
   if (!SNAP) await page.keyboard.down('Alt');
+  if (LAYERS) await page.evaluate(() => { (window as unknown as { __layers: { on: boolean } }).__layers.on = true; });
   const t0 = await page.evaluate(() => performance.now());
   await page.mouse.down();
   // A slow drag, right then back left, one move every 16 ms or so, 1 px per move.
@@ -247,6 +301,12 @@ async function measure(page: Page, name: string, baseline = false): Promise<Figu
     if (due > 0) await page.waitForTimeout(due);
   }
   const t1 = await page.evaluate(() => performance.now());
+  if (LAYERS) {
+    const lt = await page.evaluate(() => (window as unknown as { __bench: { tasks: { at: number; ms: number }[] } }).__bench.tasks);
+    console.log(`${name}: long tasks from the drag's start (ms after it, duration): ${lt.filter((x) => x.at + x.ms >= t0 && x.at <= t1).map((x) => `${(x.at - t0).toFixed(0)}: ${x.ms.toFixed(0)}`).join(', ') || 'none'}`);
+    const l = await page.evaluate(() => { const w = (window as unknown as { __layers: LayerCounts & { on: boolean } }).__layers; w.on = false; return { clears: w.clears, size: w.size, names: w.names, rafMs: w.rafMs, loaf: w.loaf, times: w.times }; });
+    printLayers(name, l, (t1 - t0) / 1000, t0);
+  }
   const sizes = await page.evaluate(() => {
     const d = (window as unknown as { __dewline: { results?: unknown; live?: { cells: number } } }).__dewline;
     const c = document.querySelector('[data-testid="board-canvas"]')!.getBoundingClientRect();
@@ -390,6 +450,7 @@ async function main() {
     for (const c of cases) {
       if (ONLY && c.name !== ONLY) continue;
       const ctx = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+      if (LAYERS) await ctx.addInitScript(LAYER_PROBE);
       if (c.file) await ctx.addInitScript((text) => sessionStorage.setItem('dewline:open', text), c.file);
       const page = await ctx.newPage();
       await page.goto(server.url + c.url);
