@@ -5,7 +5,7 @@
  * field and the document is not touched. It reads the settled section, so it does not re-render
  * while a drag is under way.
  */
-import { useEffect, useState } from 'react';
+import { memo, useDeferredValue, useEffect, useState } from 'react';
 import { lookupMaterial, partParams } from '@/lib/section/resolve';
 import { partKind, PART_KINDS } from '@/lib/section/registry';
 import { ANCHORS, ZONE_KINDS } from '@/lib/section/schema';
@@ -60,10 +60,15 @@ export function ValueField({ label, value, commit, testId, warn, disabled }: { l
   );
 }
 
+/**
+ * The panel of the selection. It reads the selection and the settled section as deferred values: a
+ * click that selects a part and starts a drag is handled at once, and the panel (many fields) renders
+ * after it in React's interruptible passes rather than inside the pointer event's task.
+ */
 export function SidePanel() {
   const c = useBoard();
-  const ui = useStore(c.ui);
-  const st = useStore(c.settled);
+  const ui = useDeferredValue(useStore(c.ui));
+  const st = useDeferredValue(useStore(c.settled));
   const { parts, zones } = ui.selection;
   if (parts.length === 1 && !zones.length) {
     const p = st.snapshot.parts.find((x) => x.id === parts[0]);
@@ -95,7 +100,7 @@ function Actions({ c, readOnly, locked }: { c: BoardController; readOnly: boolea
   );
 }
 
-function PartPanel({ c, part, system, readOnly }: { c: BoardController; part: PartRecord; system: UnitSystem; readOnly: boolean }) {
+const PartPanel = memo(function PartPanel({ c, part, system, readOnly }: { c: BoardController; part: PartRecord; system: UnitSystem; readOnly: boolean }) {
   const kind = partKind(part.kind)!;
   const st = useStore(c.settled);
   const [picking, setPicking] = useState<string | null>(null);
@@ -187,7 +192,7 @@ function PartPanel({ c, part, system, readOnly }: { c: BoardController; part: Pa
       )}
     </div>
   );
-}
+});
 
 function coord(text: string, system: UnitSystem, then: (v: number) => string | null): string | null {
   const r = parseCoordinate(text, system);
@@ -247,7 +252,7 @@ function ParamField({ name, spec, value, system, disabled, c, part, onPick }: { 
   }
 }
 
-function ZonePanel({ c, zone, system, readOnly }: { c: BoardController; zone: ZoneRecord; system: UnitSystem; readOnly: boolean }) {
+const ZonePanel = memo(function ZonePanel({ c, zone, system, readOnly }: { c: BoardController; zone: ZoneRecord; system: UnitSystem; readOnly: boolean }) {
   const set = (patch: Partial<ZoneRecord>) => c.updateZone(zone.id, patch);
   const temp = (which: 'design' | 'month') => (t: string) => {
     const r = parseQuantityField('temperature', t, system, { min: -80, max: 100 });
@@ -311,9 +316,9 @@ function ZonePanel({ c, zone, system, readOnly }: { c: BoardController; zone: Zo
       <Actions c={c} readOnly={readOnly} locked={false} />
     </div>
   );
-}
+});
 
-function MultiPanel({ c, readOnly }: { c: BoardController; readOnly: boolean }) {
+const MultiPanel = memo(function MultiPanel({ c, readOnly }: { c: BoardController; readOnly: boolean }) {
   const ui = useStore(c.ui);
   const st = useStore(c.settled);
   const [picking, setPicking] = useState(false);
@@ -333,9 +338,9 @@ function MultiPanel({ c, readOnly }: { c: BoardController; readOnly: boolean }) 
       {picking && <MaterialPicker c={c} current="" onClose={() => setPicking(false)} onPick={(id) => { const e = c.setMaterial(ui.selection.parts, id); if (!e) setPicking(false); return e; }} />}
     </div>
   );
-}
+});
 
-function SectionPanel({ c }: { c: BoardController }) {
+const SectionPanel = memo(function SectionPanel({ c }: { c: BoardController }) {
   const st = useStore(c.settled);
   const { system } = useStore(c.ui);
   const s = st.snapshot;
@@ -356,4 +361,4 @@ function SectionPanel({ c }: { c: BoardController }) {
       <p className={css.muted}>Press <kbd>?</kbd> for every shortcut. Kinds: {PART_KINDS.length}.</p>
     </div>
   );
-}
+});

@@ -1,6 +1,6 @@
 'use client';
 /** The side column: legend, readout, conditions, compare and the caution. Every number goes through lib/units. */
-import { useState } from 'react';
+import { memo, useDeferredValue, useState } from 'react';
 import { useBoard } from '@/components/board/Canvas';
 import { useStore, useStoreFields } from '@/components/board/store';
 import { Caution } from '@/components/Caution';
@@ -12,7 +12,8 @@ import { buildLut, colourOf, rangeOf } from './colour';
 import { diffResults, headline, signed } from './diff';
 import type { LiveOptions } from './options';
 import { SEGMENT_STYLES } from './segments';
-import type { LiveSession } from './session';
+import type { Baseline, LiveSession, LiveState } from './session';
+import type { BoardController } from '@/components/board/controller';
 import { Cuts, Probe, PsiSettings } from './Tools';
 
 const LUT = buildLut();
@@ -28,13 +29,24 @@ function Row({ label, value, id }: { label: string; value: string; id?: string }
   );
 }
 
+/**
+ * The readout reads the results as a deferred value: a result from the worker is drawn on the board in
+ * the message's task, and the readout (many rows, a layout of the side column) renders after it in
+ * React's interruptible passes, so a drag's main-thread tasks stay short. The parts that do not depend
+ * on the results are memoised and do not render with every result.
+ */
 export function LiveAside({ live, options }: { live: LiveSession; options: LiveOptions }) {
   const c = useBoard();
-  const st = useStoreFields(live.state, READOUT);
-  const ui = useStore(c.ui);
+  const st = useDeferredValue(useStoreFields(live.state, READOUT));
+  const { system: sys } = useDeferredValue(useStoreFields(c.ui, SYSTEM));
   const opt = useStore(options);
   const base = useStore(live.baseline);
-  const sys = ui.system;
+  return <Readout c={c} live={live} options={options} st={st} sys={sys} opt={opt} base={base} />;
+}
+
+const SYSTEM = ['system'] as const;
+
+const Readout = memo(function Readout({ c, live, options, st, sys, opt, base }: { c: BoardController; live: LiveSession; options: LiveOptions; st: Pick<LiveState, (typeof READOUT)[number]>; sys: UnitSystem; opt: ReturnType<LiveOptions['get']>; base: Baseline | null }) {
   const r = st.results;
   const q = (k: Parameters<typeof formatQuantity>[0], v: number | null | undefined, d?: number) => (v === null || v === undefined || !Number.isFinite(v) ? '–' : formatQuantity(k, v, sys, d));
   const h = r ? headline(r) : null;
@@ -72,7 +84,7 @@ export function LiveAside({ live, options }: { live: LiveSession; options: LiveO
           <Row label="Energy balance" value={r.energyBalance.toExponential(1)} id="live-balance" />
           <Row label="Mesh" value={`${r.mesh.level}, ${r.mesh.cells} cells`} id="live-cells" />
           <Row label="Solve time" value={`${st.lastMs.toFixed(0)} ms`} id="live-ms" />
-          <SegmentKey />
+          <MemoSegmentKey />
           <details>
             <summary>Assumptions ({r.assumptions.length}){r.warnings.length ? `, ${r.warnings.length} warnings` : ''}</summary>
             <ul style={{ paddingLeft: 16 }}>
@@ -83,9 +95,9 @@ export function LiveAside({ live, options }: { live: LiveSession; options: LiveO
           <Caution compact />
         </div>
       )}
-      <Probe live={live} sys={sys} />
-      <Cuts live={live} sys={sys} />
-      <PsiSettings sys={sys} />
+      <MemoProbe live={live} sys={sys} />
+      <MemoCuts live={live} sys={sys} />
+      <MemoPsiSettings sys={sys} />
       <div style={box}>
         <strong>Compare</strong>{' '}
         <button type="button" onClick={() => live.pinBaseline()} disabled={!r} data-testid="live-pin">Pin as baseline</button>{' '}
@@ -101,10 +113,14 @@ export function LiveAside({ live, options }: { live: LiveSession; options: LiveO
           );
         })()}
       </div>
-      <Conditions sys={sys} />
+      <MemoConditions sys={sys} />
     </section>
   );
-}
+});
+
+const MemoProbe = memo(Probe);
+const MemoCuts = memo(Cuts);
+const MemoPsiSettings = memo(PsiSettings);
 
 /** What the readout shows; the solver's progress (busy) is read by the status line alone. */
 const READOUT = ['results', 'stale', 'version', 'lastMs'] as const;
@@ -123,7 +139,7 @@ function Status({ live }: { live: LiveSession }) {
   );
 }
 
-function SegmentKey() {
+const MemoSegmentKey = memo(function SegmentKey() {
   return (
     <div style={{ margin: '6px 0' }}>
       {Object.entries(SEGMENT_STYLES).map(([k, s]) => (
@@ -135,7 +151,7 @@ function SegmentKey() {
       <div style={{ color: '#555' }}>Hollow glyph: a hidden surface, judged as if indoor air reaches it.</div>
     </div>
   );
-}
+});
 
 function Legend({ lo, hi, dew, mould, sys }: { lo: number; hi: number; dew: number | null; mould: number | null; sys: UnitSystem }) {
   const r = { lo, hi };
@@ -167,7 +183,7 @@ const PRESETS: { name: string; indoor: [number, number, number, number]; outdoor
   { name: 'Example: very cold, humid room', indoor: [21, 55, 21, 60], outdoor: [-30, -15], ground: [2, 0] },
 ];
 
-function Conditions({ sys }: { sys: UnitSystem }) {
+const MemoConditions = memo(function Conditions({ sys }: { sys: UnitSystem }) {
   const c = useBoard();
   const st = useStore(c.settled);
   const zones = st.snapshot.zones;
@@ -212,7 +228,7 @@ function Conditions({ sys }: { sys: UnitSystem }) {
       </table>
     </div>
   );
-}
+});
 
 function TempInput({ value, sys, onCommit, label }: { value: number; sys: UnitSystem; onCommit: (t: number) => void; label: string }) {
   const [text, setText] = useState(formatQuantity('temperature', value, sys));
