@@ -7,7 +7,7 @@
  * they only translate, that layer's canvas is shifted rather than redrawn (MovingLayer).
  */
 import type { ReactNode } from 'react';
-import { createContext, memo, useContext, useEffect, useLayoutEffect, useMemo, useRef } from 'react';
+import { createContext, memo, useCallback, useContext, useEffect, useLayoutEffect, useMemo, useRef } from 'react';
 import { Layer, Line, Rect, Shape, Stage, Text, Circle, Group } from 'react-konva';
 import type { FillPattern } from '@/lib/materials/material';
 import { lookupMaterial } from '@/lib/section/resolve';
@@ -19,7 +19,7 @@ import { boxOf } from './hit';
 import type { OutlineItem } from './rigid';
 import { rigidShift } from './rigid';
 import { keepUnchanged } from './stable';
-import { useStore } from './store';
+import { useStore, useStoreFields } from './store';
 import { gridSpacing, patternBucket, toScreen } from './view';
 
 export const BoardContext = createContext<BoardController | null>(null);
@@ -34,11 +34,11 @@ export function useBoard(): BoardController {
  * A Konva layer in section coordinates: metres, x to the right, y up. Overlays (temperature colours,
  * isotherms, marks) draw inside one of these and follow pan and zoom for free.
  */
-export function WorldLayer({ children, opacity }: { children?: ReactNode; opacity?: number }) {
+export function WorldLayer({ children, opacity, name }: { children?: ReactNode; opacity?: number; name?: string }) {
   const c = useBoard();
   const v = useStore(c.view);
   return (
-    <Layer x={v.ox} y={v.oy} scaleX={v.k} scaleY={-v.k} listening={false} opacity={opacity}>
+    <Layer name={name} x={v.ox} y={v.oy} scaleX={v.k} scaleY={-v.k} listening={false} opacity={opacity}>
       {children}
     </Layer>
   );
@@ -172,7 +172,7 @@ function ZonesLayer() {
 
 const ZoneShapes = memo(function ZoneShapes({ zones }: { zones: SectionState['resolved']['zones'] }) {
   return (
-    <WorldLayer>
+    <WorldLayer name="zones">
       {zones.map((z) => {
         const zs = ZONE_STYLES[z.kind] ?? ZONE_STYLES.fixed;
         return <Line key={z.zoneId} points={z.polygon.flatMap(([x, y]) => [x, y])} closed fill={zs.fill} stroke={zs.edge} strokeWidth={1} dash={[6, 4]} strokeScaleEnabled={false} listening={false} perfectDrawEnabled={false} />;
@@ -181,55 +181,56 @@ const ZoneShapes = memo(function ZoneShapes({ zones }: { zones: SectionState['re
   );
 });
 
-/** Grid lines in screen space, faint over the drawing; minor lines at round mm or inch steps. */
+/**
+ * Grid lines in screen space, faint over the drawing; minor lines at round mm or inch steps. The layer
+ * stays mounted when the grid is off (hidden), and its drawing function changes only with the view, the
+ * size and the spacing, so selecting or dragging a part does not redraw it.
+ */
+const GRID_UI = ['grid', 'system'] as const;
 function GridLayer() {
   const c = useBoard();
   const v = useStore(c.view);
-  const ui = useStore(c.ui);
+  const ui = useStoreFields(c.ui, GRID_UI);
   const size = useStore(c.size);
-  if (!ui.grid) return null;
   const { minor, major } = gridSpacing(v.k, ui.system);
+  const sceneFunc = useCallback((ctx: import('konva/lib/Context').Context) => {
+    const x0 = Math.floor(-v.ox / v.k / minor) * minor;
+    const x1 = (size.width - v.ox) / v.k;
+    const yTop = v.oy / v.k, yBot = (v.oy - size.height) / v.k;
+    const y0 = Math.floor(yBot / minor) * minor;
+    const ratio = Math.round(major / minor);
+    const draw = (isMajor: boolean) => {
+      ctx.beginPath();
+      for (let i = Math.round(x0 / minor), x = x0; x <= x1; i++, x = i * minor) {
+        if ((i % ratio === 0) !== isMajor) continue;
+        const sx = Math.round(x * v.k + v.ox) + 0.5;
+        ctx.moveTo(sx, 0);
+        ctx.lineTo(sx, size.height);
+      }
+      for (let i = Math.round(y0 / minor), y = y0; y <= yTop; i++, y = i * minor) {
+        if ((i % ratio === 0) !== isMajor) continue;
+        const sy = Math.round(-y * v.k + v.oy) + 0.5;
+        ctx.moveTo(0, sy);
+        ctx.lineTo(size.width, sy);
+      }
+      ctx.strokeStyle = isMajor ? 'rgba(40, 60, 80, 0.16)' : 'rgba(40, 60, 80, 0.07)';
+      ctx.lineWidth = 1;
+      ctx.stroke();
+    };
+    draw(false);
+    draw(true);
+    // Grade and the reference line, a little stronger.
+    ctx.beginPath();
+    ctx.moveTo(0, Math.round(v.oy) + 0.5);
+    ctx.lineTo(size.width, Math.round(v.oy) + 0.5);
+    ctx.moveTo(Math.round(v.ox) + 0.5, 0);
+    ctx.lineTo(Math.round(v.ox) + 0.5, size.height);
+    ctx.strokeStyle = 'rgba(40, 60, 80, 0.28)';
+    ctx.stroke();
+  }, [v, size, minor, major]);
   return (
-    <Layer listening={false}>
-      <Shape
-        listening={false}
-        perfectDrawEnabled={false}
-        sceneFunc={(ctx) => {
-          const x0 = Math.floor(-v.ox / v.k / minor) * minor;
-          const x1 = (size.width - v.ox) / v.k;
-          const yTop = v.oy / v.k, yBot = (v.oy - size.height) / v.k;
-          const y0 = Math.floor(yBot / minor) * minor;
-          const ratio = Math.round(major / minor);
-          const draw = (isMajor: boolean) => {
-            ctx.beginPath();
-            for (let i = Math.round(x0 / minor), x = x0; x <= x1; i++, x = i * minor) {
-              if ((i % ratio === 0) !== isMajor) continue;
-              const sx = Math.round(x * v.k + v.ox) + 0.5;
-              ctx.moveTo(sx, 0);
-              ctx.lineTo(sx, size.height);
-            }
-            for (let i = Math.round(y0 / minor), y = y0; y <= yTop; i++, y = i * minor) {
-              if ((i % ratio === 0) !== isMajor) continue;
-              const sy = Math.round(-y * v.k + v.oy) + 0.5;
-              ctx.moveTo(0, sy);
-              ctx.lineTo(size.width, sy);
-            }
-            ctx.strokeStyle = isMajor ? 'rgba(40, 60, 80, 0.16)' : 'rgba(40, 60, 80, 0.07)';
-            ctx.lineWidth = 1;
-            ctx.stroke();
-          };
-          draw(false);
-          draw(true);
-          // Grade and the reference line, a little stronger.
-          ctx.beginPath();
-          ctx.moveTo(0, Math.round(v.oy) + 0.5);
-          ctx.lineTo(size.width, Math.round(v.oy) + 0.5);
-          ctx.moveTo(Math.round(v.ox) + 0.5, 0);
-          ctx.lineTo(Math.round(v.ox) + 0.5, size.height);
-          ctx.strokeStyle = 'rgba(40, 60, 80, 0.28)';
-          ctx.stroke();
-        }}
-      />
+    <Layer name="grid" listening={false} visible={ui.grid}>
+      <Shape listening={false} perfectDrawEnabled={false} sceneFunc={sceneFunc} />
     </Layer>
   );
 }

@@ -163,8 +163,21 @@ export function LiveOverlay({ live, options }: { live: LiveSession; options: Liv
 
 const PROBED = ['results', 'field'] as const;
 
-/** A small label beside the pointer: temperature there and, over a verdict surface, its surface RH. Its own layer, so a pointer move redraws only it. */
+/**
+ * A small label beside the pointer: temperature there and, over a verdict surface, its surface RH. Its
+ * own layer, so a pointer move redraws only it. The layer stays mounted when there is nothing to show:
+ * adding or removing a layer makes react-konva redraw the whole stage (every layer), which at the start
+ * and end of a drag was one long main-thread task.
+ */
 function ProbeLayer({ live }: { live: LiveSession }) {
+  return (
+    <Layer listening={false}>
+      <ProbeLabel live={live} />
+    </Layer>
+  );
+}
+
+function ProbeLabel({ live }: { live: LiveSession }) {
   const c = useBoard();
   const spot = useStore(c.pointer);
   const st = useStoreFields(live.state, PROBED);
@@ -176,11 +189,9 @@ function ProbeLayer({ live }: { live: LiveSession }) {
   const text = `${r.t === null ? '' : formatQuantity('temperature', r.t, ui.system, 1)}${r.segment ? `${r.t === null ? '' : ' · '}surface RH ${(r.segment.rhSurfaceMax * 100).toFixed(0)} %` : ''}`;
   const w = text.length * 6.2 + 12;
   return (
-    <Layer listening={false}>
-      <Group x={spot.sx + 14} y={spot.sy + 12}>
-        <Rect width={w} height={18} fill="rgba(255,255,255,0.92)" stroke="#5b3f8c" strokeWidth={0.8} cornerRadius={3} />
-        <Text x={6} y={4} text={text} fontSize={11} fontFamily="system-ui, sans-serif" fill="#1d232b" />
-      </Group>
-    </Layer>
+    <Group x={spot.sx + 14} y={spot.sy + 12}>
+      <Rect width={w} height={18} fill="rgba(255,255,255,0.92)" stroke="#5b3f8c" strokeWidth={0.8} cornerRadius={3} />
+      <Text x={6} y={4} text={text} fontSize={11} fontFamily="system-ui, sans-serif" fill="#1d232b" />
+    </Group>
   );
 }

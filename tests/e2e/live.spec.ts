@@ -285,3 +285,46 @@ test('during a drag every result is matched to its own request, the selection is
   expect(results.filter((r) => r.mesh === 'preview').length).toBeGreaterThanOrEqual(2);
   for (const r of results) expect(r.mesh).toBe(posted.get(r.id));
 });
+
+test('selecting and dragging a part redraws only the layers it changes: the stage keeps its layers, zones and grid are not redrawn', async ({ page }) => {
+  await page.goto('/section?template=basement-inside-framed');
+  await settled(page);
+  // Count canvas clears per layer (a Konva layer clears its canvas once per draw).
+  await page.evaluate(() => {
+    const w = window as unknown as { __clears: Map<HTMLCanvasElement, number> };
+    w.__clears = new Map();
+    const clear = CanvasRenderingContext2D.prototype.clearRect;
+    CanvasRenderingContext2D.prototype.clearRect = function (this: CanvasRenderingContext2D, ...a: [number, number, number, number]) {
+      w.__clears.set(this.canvas, (w.__clears.get(this.canvas) ?? 0) + 1);
+      return clear.apply(this, a);
+    };
+  });
+  const state = () => page.evaluate(() => {
+    const ls = (window as unknown as Konvaish).Konva.stages[0].getLayers();
+    const clears = (window as unknown as { __clears: Map<HTMLCanvasElement, number> }).__clears;
+    const of = (n: string) => clears.get(ls.find((l) => l.name() === n)!.getCanvas()._canvas) ?? 0;
+    return { layers: ls.length, zones: of('zones'), grid: of('grid'), selection: of('selection') };
+  });
+  const fb = (await page.evaluate(() => (window as unknown as Live).__dewline.partBox('footing')))!;
+  const start = await toClient(page, fb.minX + 0.15, (fb.minY + fb.maxY) / 2);
+  await page.mouse.move(start.x, start.y); // the probe label appears over the section
+  await page.waitForTimeout(300);
+  const hover = await state();
+  await page.keyboard.down('Alt');
+  await page.mouse.down();
+  await page.waitForTimeout(300);
+  const down = await state();
+  // Selecting draws the selection; adding or removing a layer would redraw every layer of the stage.
+  expect(down.selection).toBeGreaterThan(hover.selection);
+  expect(down).toMatchObject({ layers: hover.layers, zones: hover.zones, grid: hover.grid });
+  for (let i = 1; i <= 15; i++) {
+    await page.mouse.move(start.x + 2 * i, start.y);
+    await page.waitForTimeout(40);
+  }
+  await page.waitForFunction(() => (window as unknown as Live).__dewline.live.mesh === 'preview', null, { timeout: 120_000 });
+  expect(await state()).toMatchObject({ layers: hover.layers, zones: hover.zones, grid: hover.grid });
+  await page.mouse.up();
+  await page.keyboard.up('Alt');
+  await settled(page);
+  expect((await state()).layers).toBe(hover.layers);
+});
